@@ -1,0 +1,123 @@
+import "server-only";
+import { and, asc, eq, inArray } from "drizzle-orm";
+import { randomUUID } from "node:crypto";
+import { getDb } from "@/db/client";
+import { houses, plugs, sensors } from "@/db/schema";
+import { AppError } from "@/lib/errors";
+import type { HouseChange, HouseInput } from "@/lib/schemas/house";
+import { recordAudit } from "./audit";
+
+export type House = typeof houses.$inferSelect;
+export type PlugSummary = Pick<
+  typeof plugs.$inferSelect,
+  "id" | "houseId" | "deviceId" | "name" | "applianceKind" | "applianceWatts" | "ratedCurrentA" | "online" | "lastSeenAt"
+>;
+export type SensorSummary = Pick<typeof sensors.$inferSelect, "id" | "houseId" | "deviceId" | "name" | "online" | "lastSeenAt">;
+export type HouseOverview = House & { plugs: PlugSummary[]; sensors: SensorSummary[] };
+
+export async function getHousesBySite({ siteId }: { siteId: string }): Promise<House[]> {
+  return getDb().select().from(houses).where(eq(houses.siteId, siteId)).orderBy(asc(houses.name));
+}
+
+/** Houses of a site with their plugs and sensors (explicit joins: MariaDB has no LATERAL). */
+export async function getHouseOverviewsBySite({ siteId }: { siteId: string }): Promise<HouseOverview[]> {
+  const db = getDb();
+  const houseRows = await getHousesBySite({ siteId });
+  if (houseRows.length === 0) return [];
+  const ids = houseRows.map((h) => h.id);
+  const [plugRows, sensorRows] = await Promise.all([
+    db
+      .select({
+        id: plugs.id,
+        houseId: plugs.houseId,
+        deviceId: plugs.deviceId,
+        name: plugs.name,
+        applianceKind: plugs.applianceKind,
+        applianceWatts: plugs.applianceWatts,
+        ratedCurrentA: plugs.ratedCurrentA,
+        online: plugs.online,
+        lastSeenAt: plugs.lastSeenAt,
+      })
+      .from(plugs)
+      .where(and(eq(plugs.siteId, siteId), inArray(plugs.houseId, ids)))
+      .orderBy(asc(plugs.name)),
+    db
+      .select({
+        id: sensors.id,
+        houseId: sensors.houseId,
+        deviceId: sensors.deviceId,
+        name: sensors.name,
+        online: sensors.online,
+        lastSeenAt: sensors.lastSeenAt,
+      })
+      .from(sensors)
+      .where(and(eq(sensors.siteId, siteId), inArray(sensors.houseId, ids)))
+      .orderBy(asc(sensors.name)),
+  ]);
+  return houseRows.map((house) => ({
+    ...house,
+    plugs: plugRows.filter((p) => p.houseId === house.id),
+    sensors: sensorRows.filter((s) => s.houseId === house.id),
+  }));
+}
+
+export async function getHouse({ siteId, houseId }: { siteId: string; houseId: string }): Promise<House | null> {
+  const [row] = await getDb()
+    .select()
+    .from(houses)
+    .where(and(eq(houses.siteId, siteId), eq(houses.id, houseId)))
+    .limit(1);
+  return row ?? null;
+}
+
+export async function requireHouse(ids: { siteId: string; houseId: string }): Promise<House> {
+  const house = await getHouse(ids);
+  if (!house) throw new AppError("not_found", "No such house in this site.");
+  return house;
+}
+
+export async function createHouse({ siteId, userId, input }: { siteId: string; userId: string; input: HouseInput }) {
+  const id = randomUUID();
+  await getDb().transaction(async (tx) => {
+    await tx.insert(houses).values({ id, siteId, ...input, notes: input.notes ?? null });
+    await recordAudit(tx, { siteId, userId, action: "house.create", entityType: "house", entityId: id, after: input });
+  });
+  return (await getHouse({ siteId, houseId: id }))!;
+}
+
+export async function updateHouse({ house, userId, change }: { house: House; userId: string; change: HouseChange }) {
+  const next = { ...house, ...change };
+  if (next.ridgeHeightM < next.eaveHeightM) {
+    throw new AppError("bad_input", "ridgeHeightM: Ridge height must be at least the eave height", {
+      ridgeHeightM: "Ridge height must be at least the eave height",
+    });
+  }
+  await getDb().transaction(async (tx) => {
+    await tx.update(houses).set(change).where(eq(houses.id, house.id));
+    const before = Object.fromEntries(Object.keys(change).map((k) => [k, house[k as keyof House]]));
+    await recordAudit(tx, {
+      siteId: house.siteId,
+      userId,
+      action: "house.update",
+      entityType: "house",
+      entityId: house.id,
+      before,
+      after: change,
+    });
+  });
+  return (await getHouse({ siteId: house.siteId, houseId: house.id }))!;
+}
+
+export async function deleteHouse({ house, userId }: { house: House; userId: string }) {
+  await getDb().transaction(async (tx) => {
+    await tx.delete(houses).where(eq(houses.id, house.id));
+    await recordAudit(tx, {
+      siteId: house.siteId,
+      userId,
+      action: "house.delete",
+      entityType: "house",
+      entityId: house.id,
+      before: house,
+    });
+  });
+}

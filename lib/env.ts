@@ -1,0 +1,42 @@
+import { z } from "zod";
+
+const schema = z.object({
+  NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
+  DATABASE_URL: z
+    .string({ error: "DATABASE_URL is required (npm start sets it for its own MariaDB)" })
+    .regex(/^mysql:\/\//, "DATABASE_URL must be a mysql:// URL"),
+  BETTER_AUTH_SECRET: z
+    .string({ error: "BETTER_AUTH_SECRET is required (npm start makes one in .data/)" })
+    .min(32, "BETTER_AUTH_SECRET must be at least 32 characters"),
+  BETTER_AUTH_URL: z.url("BETTER_AUTH_URL must be the app's public URL").default("http://127.0.0.1:3000"),
+  /** Further origins the browser may use, comma-separated. */
+  CLOCHE_TRUSTED_ORIGINS: z.string().default(""),
+  /** Sign-in attempts allowed per client address in each 60 s window. */
+  CLOCHE_SIGN_IN_LIMIT: z.coerce.number().int().positive().default(5),
+});
+
+export type Env = z.infer<typeof schema>;
+
+let cached: Env | undefined;
+
+/** The validated environment. Read lazily so that `next build` needs no secrets. */
+export function env(): Env {
+  if (cached) return cached;
+  const parsed = schema.safeParse(process.env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((issue) => `  ${issue.path.join(".")}: ${issue.message}`);
+    throw new Error(`Cloche's environment is not valid:\n${lines.join("\n")}`);
+  }
+  cached = parsed.data;
+  return cached;
+}
+
+export function trustedOrigins(e: Env = env()): string[] {
+  const base = new URL(e.BETTER_AUTH_URL);
+  const origins = new Set([base.origin]);
+  // 127.0.0.1 and localhost are different origins to a browser: accept both locally.
+  if (base.hostname === "127.0.0.1") origins.add(`${base.protocol}//localhost${base.port ? `:${base.port}` : ""}`);
+  if (base.hostname === "localhost") origins.add(`${base.protocol}//127.0.0.1${base.port ? `:${base.port}` : ""}`);
+  for (const origin of e.CLOCHE_TRUSTED_ORIGINS.split(",").map((s) => s.trim()).filter(Boolean)) origins.add(origin);
+  return [...origins];
+}

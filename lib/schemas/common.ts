@@ -1,0 +1,41 @@
+import { z } from "zod";
+
+export const recordId = (what: string) =>
+  z.uuid({ error: `must be a ${what} id` });
+
+/** A trimmed, non-empty line of text of at most `max` characters. */
+export const line = (label: string, max: number) =>
+  z
+    .string({ error: `${label} must be text` })
+    .trim()
+    .min(1, `${label} is required`)
+    .max(max, `${label} must be at most ${max} characters`);
+
+export const isTimeZone = (value: string) => {
+  try {
+    new Intl.DateTimeFormat("en", { timeZone: value });
+    // Intl also accepts offsets like "+01:00"; schedules need a named IANA zone.
+    return /^[A-Za-z]+(?:\/[A-Za-z0-9_+-]+)+$|^UTC$/.test(value);
+  } catch {
+    return false;
+  }
+};
+
+export const timeZone = z
+  .string({ error: "Time zone must be text" })
+  .trim()
+  .max(64, "Time zone must be at most 64 characters")
+  .refine(isTimeZone, "Time zone must be an IANA zone name such as Europe/London");
+
+const currencies = new Set(Intl.supportedValuesOf("currency"));
+export const currency = z
+  .string({ error: "Currency must be text" })
+  .trim()
+  .toUpperCase()
+  .refine((value) => currencies.has(value), "Currency must be an ISO 4217 code such as GBP or EUR");
+
+export const decimalNumber = (label: string, min: number, max: number) =>
+  z
+    .number({ error: `${label} must be a number` })
+    .min(min, `${label} must be at least ${min}`)
+    .max(max, `${label} must be at most ${max}`);

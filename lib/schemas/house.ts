@@ -1,0 +1,35 @@
+import { z } from "zod";
+import { GLAZINGS, HOUSE_KINDS } from "@/lib/domain";
+import { decimalNumber, line, recordId } from "./common";
+
+const houseFields = z.object({
+  name: line("Name", 80),
+  kind: z.enum(HOUSE_KINDS, { error: `Kind must be one of ${HOUSE_KINDS.join(", ")}` }),
+  lengthM: decimalNumber("Length", 0.5, 500),
+  widthM: decimalNumber("Width", 0.5, 200),
+  eaveHeightM: decimalNumber("Eave height", 0.3, 20),
+  ridgeHeightM: decimalNumber("Ridge height", 0.5, 25),
+  glazing: z.enum(GLAZINGS, { error: `Glazing must be one of ${GLAZINGS.join(", ")}` }),
+  airChangesPerHour: decimalNumber("Air changes per hour", 0.1, 10),
+  highLimitC: decimalNumber("High limit", 15, 60),
+  notes: z.string({ error: "Notes must be text" }).trim().max(2000, "Notes must be at most 2000 characters").optional(),
+});
+
+const ridgeAboveEaves = (h: { ridgeHeightM: number; eaveHeightM: number }) => h.ridgeHeightM >= h.eaveHeightM;
+const ridgeMessage = { path: ["ridgeHeightM"], message: "Ridge height must be at least the eave height" };
+
+/** A new house; a typical leaky house and a 35 °C cut-out unless given. */
+export const houseSchema = houseFields
+  .extend({
+    airChangesPerHour: houseFields.shape.airChangesPerHour.default(1),
+    highLimitC: houseFields.shape.highLimitC.default(35),
+  })
+  .refine(ridgeAboveEaves, ridgeMessage);
+
+/** A change to a house: any of its fields, each under the same rules. */
+export const houseChangeSchema = houseFields.partial();
+
+export type HouseInput = z.infer<typeof houseSchema>;
+export type HouseChange = z.infer<typeof houseChangeSchema>;
+
+export const houseParams = z.object({ siteId: recordId("site"), houseId: recordId("house") });

@@ -1,0 +1,97 @@
+// Shared pieces of the `npm start` and `npm test` runners.
+import { spawn, type ChildProcess } from "node:child_process";
+import { randomBytes } from "node:crypto";
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
+import net from "node:net";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+
+export const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../..");
+export const dataFolder = path.join(root, ".data");
+
+export function say(line: string) {
+  console.log(`[cloche] ${line}`);
+}
+
+/** A secret kept in .data/ so sessions survive restarts; the environment wins when set. */
+export function persistentSecret(name: string, envValue: string | undefined) {
+  if (envValue) return envValue;
+  mkdirSync(dataFolder, { recursive: true });
+  const file = path.join(dataFolder, name);
+  if (!existsSync(file)) writeFileSync(file, randomBytes(32).toString("base64url") + "\n", { mode: 0o600 });
+  return readFileSync(file, "utf8").trim();
+}
+
+export function bin(name: string) {
+  return path.join(root, "node_modules", ".bin", name);
+}
+
+/** Runs a command to completion with inherited output; resolves with its exit code. */
+export function run(command: string, args: string[], env: NodeJS.ProcessEnv): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const child = spawn(command, args, { cwd: root, env, stdio: "inherit" });
+    child.on("error", reject);
+    child.on("exit", (code, signal) => resolve(code ?? (signal ? 128 : 1)));
+  });
+}
+
+export type Service = { name: string; child: ChildProcess; exited: Promise<number> };
+
+/** Starts a long-running child in its own process group, its output prefixed with its name. */
+export function startService(name: string, command: string, args: string[], env: NodeJS.ProcessEnv): Service {
+  const child = spawn(command, args, { cwd: root, env, stdio: ["ignore", "pipe", "pipe"], detached: true });
+  const prefix = (stream: NodeJS.ReadableStream, out: NodeJS.WriteStream) => {
+    let buffered = "";
+    stream.on("data", (chunk: Buffer) => {
+      buffered += chunk.toString();
+      const lines = buffered.split("\n");
+      buffered = lines.pop() ?? "";
+      for (const line of lines) out.write(`[${name}] ${line}\n`);
+    });
+  };
+  prefix(child.stdout!, process.stdout);
+  prefix(child.stderr!, process.stderr);
+  const exited = new Promise<number>((resolve) => child.on("exit", (code, signal) => resolve(code ?? (signal ? 128 : 1))));
+  return { name, child, exited };
+}
+
+export async function stopService(service: Service, timeoutMs = 10_000) {
+  if (service.child.exitCode !== null || service.child.signalCode !== null) return;
+  try {
+    process.kill(-service.child.pid!, "SIGTERM");
+  } catch {
+    return;
+  }
+  const timer = setTimeout(() => {
+    try {
+      process.kill(-service.child.pid!, "SIGKILL");
+    } catch {
+      /* already gone */
+    }
+  }, timeoutMs);
+  await service.exited;
+  clearTimeout(timer);
+}
+
+export function portIsFree(port: number, host = "127.0.0.1"): Promise<boolean> {
+  return new Promise((resolve) => {
+    const server = net.createServer();
+    server.once("error", () => resolve(false));
+    server.listen({ port, host, exclusive: true }, () => server.close(() => resolve(true)));
+  });
+}
+
+export async function waitForHttp(url: string, timeoutMs: number, alive: () => boolean) {
+  const deadline = Date.now() + timeoutMs;
+  while (Date.now() < deadline) {
+    if (!alive()) return false;
+    try {
+      const response = await fetch(url);
+      if (response.ok) return true;
+    } catch {
+      /* not yet listening */
+    }
+    await new Promise((resolve) => setTimeout(resolve, 250));
+  }
+  return false;
+}

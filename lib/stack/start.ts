@@ -1,0 +1,109 @@
+// `npm start`: a private MariaDB, migrations, the demo, a build when the sources
+// changed, and the web app on http://127.0.0.1:3000. Ctrl-C stops all of it.
+import { DEV_DATABASE_FOLDER, LocalDatabaseError, devDatabasePort, startLocalDatabase, type LocalDatabase } from "../../db/local-server";
+import { migrateDatabase } from "../../db/migrate";
+import { connect } from "../../db/client";
+import { DEMO_MEMBERS, DEMO_SITE, seedDemo } from "../../db/seed";
+import { buildIsCurrent, markBuilt, sourceHash } from "./build-stamp";
+import { bin, persistentSecret, portIsFree, run, say, startService, stopService, waitForHttp, type Service } from "./common";
+
+const port = Number(process.env.PORT ?? 3000);
+const host = "127.0.0.1";
+const url = process.env.BETTER_AUTH_URL ?? `http://${host}:${port}`;
+
+let database: LocalDatabase | undefined;
+const services: Service[] = [];
+let stopping: Promise<void> | undefined;
+
+function shutdown(code: number) {
+  stopping ??= (async () => {
+    say("stopping…");
+    for (const service of [...services].reverse()) await stopService(service);
+    await database?.stop();
+    say("stopped.");
+    process.exit(code);
+  })();
+  return stopping;
+}
+
+process.on("SIGINT", () => void shutdown(0));
+process.on("SIGTERM", () => void shutdown(0));
+
+async function main() {
+  const began = Date.now();
+  if (!(await portIsFree(port, host))) {
+    throw new LocalDatabaseError(`Port ${port} on ${host} is in use (another npm start?). Stop it, or choose another with PORT.`);
+  }
+
+  let databaseUrl = process.env.DATABASE_URL;
+  if (databaseUrl) {
+    say("using the MariaDB in DATABASE_URL");
+  } else {
+    database = await startLocalDatabase({ folder: DEV_DATABASE_FOLDER, port: devDatabasePort(), database: "cloche" });
+    databaseUrl = database.url;
+  }
+
+  say("applying migrations…");
+  await migrateDatabase(databaseUrl);
+  const { db, pool } = connect(databaseUrl);
+  try {
+    const { created } = await seedDemo(db);
+    const added = Object.values(created).reduce((a, b) => a + b, 0);
+    say(added ? `demo site seeded (${added} rows)` : "demo site already present");
+  } finally {
+    await pool.end();
+  }
+
+  const env: NodeJS.ProcessEnv = {
+    ...process.env,
+    NODE_ENV: "production",
+    DATABASE_URL: databaseUrl,
+    BETTER_AUTH_URL: url,
+    BETTER_AUTH_SECRET: persistentSecret("auth-secret", process.env.BETTER_AUTH_SECRET),
+    NEXT_TELEMETRY_DISABLED: "1",
+  };
+
+  const hash = sourceHash();
+  if (buildIsCurrent(hash)) {
+    say("build is up to date");
+  } else {
+    say("building the web app (next build)…");
+    const code = await run(bin("next"), ["build"], env);
+    if (code !== 0) throw new LocalDatabaseError("next build failed; see its output above.");
+    markBuilt(hash);
+  }
+
+  const web = startService("web", bin("next"), ["start", "--hostname", host, "--port", String(port)], env);
+  services.push(web);
+  for (const service of services) {
+    void service.exited.then((code) => {
+      if (!stopping) {
+        console.error(`[cloche] ${service.name} stopped unexpectedly (exit ${code}); stopping everything.`);
+        void shutdown(1);
+      }
+    });
+  }
+
+  const ready = await waitForHttp(`${url}/api/health`, 60_000, () => web.child.exitCode === null);
+  if (!ready) throw new LocalDatabaseError("the web app did not answer /api/health within 60 s.");
+
+  const width = Math.max(...DEMO_MEMBERS.map((m) => m.email.length));
+  console.log(
+    [
+      "",
+      `  Cloche is running at ${url}   (ready in ${((Date.now() - began) / 1000).toFixed(1)} s)`,
+      "",
+      `  Demo site: ${DEMO_SITE.name}. Sign in as:`,
+      ...DEMO_MEMBERS.map((m) => `    ${m.role.padEnd(7)} ${m.email.padEnd(width)}  password ${m.password}`),
+      "",
+      database ? `  MariaDB: 127.0.0.1:${database.port} (data in .data/mariadb)` : "  MariaDB: DATABASE_URL",
+      "  Ctrl-C stops everything.",
+      "",
+    ].join("\n"),
+  );
+}
+
+main().catch((error) => {
+  console.error(`[cloche] ${error instanceof LocalDatabaseError ? error.message : error?.stack ?? error}`);
+  void shutdown(1);
+});
