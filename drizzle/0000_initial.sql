@@ -173,7 +173,6 @@ CREATE TABLE `schedule_exceptions` (
 	`id` varchar(36) NOT NULL,
 	`schedule_id` varchar(36) NOT NULL,
 	`day` date NOT NULL,
-	`kind` enum('skip','only') NOT NULL DEFAULT 'skip',
 	`note` text,
 	`created_at` datetime(3) NOT NULL DEFAULT CURRENT_TIMESTAMP(3),
 	CONSTRAINT `schedule_exceptions_id` PRIMARY KEY(`id`),

@@ -33,3 +33,10 @@ export const GLAZING_LABELS: Record<Glazing, string> = {
 
 export const APPLIANCE_KINDS = ["heater", "fan", "light", "other"] as const;
 export type ApplianceKind = (typeof APPLIANCE_KINDS)[number];
+
+export const APPLIANCE_KIND_LABELS: Record<ApplianceKind, string> = {
+  heater: "Heater",
+  fan: "Fan",
+  light: "Light",
+  other: "Other appliance",
+};

@@ -3,7 +3,6 @@ import { createdAt, id, ref, updatedAt } from "./columns";
 import { plugs } from "./devices";
 
 export const WINDOW_MODES = ["band", "on", "off"] as const;
-export const EXCEPTION_KINDS = ["skip", "only"] as const;
 
 /** A plug's weekly plan, valid for a season, in the site's time zone. */
 export const schedules = mysqlTable(
@@ -48,7 +47,7 @@ export const scheduleWindows = mysqlTable(
   (t) => [index("schedule_windows_schedule_idx").on(t.scheduleId)],
 );
 
-/** A local date on which the schedule's windows are skipped. */
+/** A local date on which the schedule's windows do not open (like RFC 5545 EXDATE), e.g. a holiday. */
 export const scheduleExceptions = mysqlTable(
   "schedule_exceptions",
   {
@@ -57,7 +56,6 @@ export const scheduleExceptions = mysqlTable(
       .notNull()
       .references(() => schedules.id, { onDelete: "cascade" }),
     day: date("day", { mode: "string" }).notNull(),
-    kind: mysqlEnum("kind", EXCEPTION_KINDS).notNull().default("skip"),
     note: text("note"),
     createdAt: createdAt(),
   },

@@ -1,0 +1,29 @@
+import type { Metadata } from "next";
+import { headers } from "next/headers";
+import Link from "next/link";
+import { redirect } from "next/navigation";
+import { AuthPanel } from "@/components/auth/AuthPanel";
+import { SignInForm } from "@/components/auth/SignInForm";
+import { getSessionUser } from "@/lib/session";
+
+export const metadata: Metadata = { title: "Sign in" };
+
+export default async function SignInPage() {
+  if (await getSessionUser(await headers())) redirect("/");
+  return (
+    <AuthPanel
+      title="Sign in"
+      intro="Welcome back. Your houses are where you left them."
+      footer={
+        <>
+          New to Cloche?{" "}
+          <Link href="/sign-up" className="font-semibold text-leaf-700 underline-offset-2 hover:underline">
+            Create an account
+          </Link>
+        </>
+      }
+    >
+      <SignInForm />
+    </AuthPanel>
+  );
+}

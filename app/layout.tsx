@@ -1,0 +1,30 @@
+import type { Metadata, Viewport } from "next";
+import localFont from "next/font/local";
+import type { ReactNode } from "react";
+import "./globals.css";
+
+const inter = localFont({
+  src: "../node_modules/@fontsource-variable/inter/files/inter-latin-wght-normal.woff2",
+  weight: "100 900",
+  style: "normal",
+  display: "swap",
+  variable: "--font-inter",
+});
+
+export const metadata: Metadata = {
+  title: { default: "Cloche", template: "%s · Cloche" },
+  description: "Keeps heated glasshouses and polytunnels at the right temperature for the least money.",
+  applicationName: "Cloche",
+};
+
+export const viewport: Viewport = {
+  themeColor: "#34562c",
+};
+
+export default function RootLayout({ children }: { children: ReactNode }) {
+  return (
+    <html lang="en" className={inter.variable}>
+      <body className="min-h-dvh font-sans">{children}</body>
+    </html>
+  );
+}

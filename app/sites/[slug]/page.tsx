@@ -1,0 +1,42 @@
+import type { Metadata } from "next";
+import { HouseCard } from "@/components/houses/HouseCard";
+import { NoHouses } from "@/components/houses/NoHouses";
+import { HeaterSafetyNote } from "@/components/safety/HeaterSafetyNote";
+import { getHouseOverviewsBySite } from "@/db/queries/houses";
+import { getCurrentSite } from "./current-site";
+
+type Props = { params: Promise<{ slug: string }> };
+
+export async function generateMetadata({ params }: Props): Promise<Metadata> {
+  const { site } = await getCurrentSite((await params).slug);
+  return { title: `Houses — ${site.name}` };
+}
+
+export default async function HousesPage({ params }: Props) {
+  const { site } = await getCurrentSite((await params).slug);
+  const houses = await getHouseOverviewsBySite({ siteId: site.id });
+  const now = new Date();
+
+  return (
+    <div className="flex flex-col gap-6">
+      <div>
+        <h1 className="text-2xl font-semibold text-frost-950">Houses</h1>
+        <p className="mt-1 text-sm text-frost-600">
+          {houses.length === 0 ? site.name : `${houses.length} ${houses.length === 1 ? "house" : "houses"} in ${site.name}`}
+        </p>
+      </div>
+
+      {houses.length === 0 ? (
+        <NoHouses siteName={site.name} />
+      ) : (
+        <div className="grid gap-4 md:grid-cols-2">
+          {houses.map((house) => (
+            <HouseCard key={house.id} house={house} now={now} timeZone={site.timeZone} mainsVoltage={site.mainsVoltage} />
+          ))}
+        </div>
+      )}
+
+      <HeaterSafetyNote />
+    </div>
+  );
+}

@@ -1,0 +1,51 @@
+import type { HouseOverview } from "@/db/queries/houses";
+import { GLAZING_LABELS, HOUSE_KIND_LABELS } from "@/lib/domain";
+import { Card } from "@/components/ui/Card";
+import { formatMetres } from "./format";
+import { PlugList } from "./PlugList";
+import { ReadingsPlaceholder } from "./ReadingsPlaceholder";
+import { SensorList } from "./SensorList";
+
+type HouseCardProps = { house: HouseOverview; now: Date; timeZone: string; mainsVoltage: number };
+
+export function HouseCard({ house, now, timeZone, mainsVoltage }: HouseCardProps) {
+  const area = house.lengthM * house.widthM;
+  const headingId = `house-${house.id}`;
+  return (
+    <Card as="article" className="flex flex-col gap-4 p-4 sm:p-5" aria-labelledby={headingId}>
+      <header className="flex flex-wrap items-start justify-between gap-2">
+        <h2 id={headingId} className="text-lg font-semibold text-frost-950">
+          {house.name}
+        </h2>
+        <span className="rounded-full bg-leaf-50 px-2.5 py-0.5 text-xs font-medium text-leaf-800 ring-1 ring-leaf-200">
+          {HOUSE_KIND_LABELS[house.kind]}
+        </span>
+      </header>
+
+      <dl className="grid grid-cols-2 gap-x-4 gap-y-2 text-sm">
+        <div>
+          <dt className="text-xs text-frost-600">Floor area</dt>
+          <dd className="text-frost-900">
+            {formatMetres(house.lengthM)} × {formatMetres(house.widthM)} m = {formatMetres(area)} m²
+          </dd>
+        </div>
+        <div>
+          <dt className="text-xs text-frost-600">Glazing</dt>
+          <dd className="text-frost-900">{GLAZING_LABELS[house.glazing]}</dd>
+        </div>
+      </dl>
+
+      <ReadingsPlaceholder hasSensor={house.sensors.length > 0} />
+
+      <section aria-label={`Plugs in ${house.name}`}>
+        <h3 className="mb-2 text-xs font-semibold uppercase tracking-wide text-frost-600">Plugs</h3>
+        <PlugList plugs={house.plugs} now={now} timeZone={timeZone} mainsVoltage={mainsVoltage} />
+      </section>
+
+      <section aria-label={`Sensors in ${house.name}`}>
+        <h3 className="mb-2 text-xs font-semibold uppercase tracking-wide text-frost-600">Sensors</h3>
+        <SensorList sensors={house.sensors} now={now} timeZone={timeZone} />
+      </section>
+    </Card>
+  );
+}
