@@ -14,7 +14,8 @@ type AuthPanelProps = {
 export function AuthPanel({ title, intro, children, footer }: AuthPanelProps) {
   return (
     <main className="mx-auto flex min-h-dvh w-full max-w-md flex-col justify-center gap-6 px-4 py-10">
-      <Link href="/" className="self-center">
+      {/* Not prefetched: signed out, "/" answers with a redirect the router would keep after sign-in. */}
+      <Link href="/" prefetch={false} className="self-center">
         <Wordmark />
       </Link>
       <Card as="section" className="p-5 sm:p-7" aria-labelledby="auth-title">
