@@ -1,0 +1,153 @@
+import { alertSet, OVERLOAD, SENSOR_QUIET, TOO_HOT } from "./alerts";
+import { bandSenseFor, edgeReached, edgeWantsOn, type BandSense } from "./band";
+import { dutyCycleOn } from "./duty";
+import { currentDrawA, isOverloaded } from "./electrical";
+import { heldUntil } from "./guard";
+import { freshTempC } from "./sensor";
+import type { Cause, Decision, DecisionInput } from "./types";
+
+/**
+ * Whether one plug should be on now, and why. Pure and synchronous; the controller
+ * calls it for every plug on every evaluation.
+ *
+ * Precedence: safety cut-outs, then an active override, then the time window in
+ * force, then the default outside windows; a band whose sensor has gone quiet gives
+ * way to the plug's fail-safe. Last, the anti-short-cycle guard may hold a change back.
+ *
+ * Choices made here:
+ * - Overrides are not held back by the guard: a phone override is meant to take
+ *   effect within a second, and a person cannot switch often enough to wear a relay.
+ *   The return to the schedule once the override ends is guarded as usual.
+ * - Between a band's edges with the plug's state unknown, the plug goes off: the
+ *   temperature is inside the band, so nothing is needed yet, and off is the cheaper
+ *   state. The next edge reached switches it as usual.
+ * - A band missing an edge cannot be judged, so the plug is off.
+ * - A heater with no fresh reading raises "sensor_quiet" whatever rule is in force:
+ *   its high-limit cut-out cannot see.
+ */
+export function decide(input: DecisionInput): Decision {
+  const { rules, nowMs } = input;
+  const tempC = freshTempC(input.reading, nowMs, rules.staleAfterS);
+  const isHeater = rules.applianceKind === "heater";
+  let alerts = isHeater && tempC === null ? SENSOR_QUIET : 0;
+
+  // 1. Safety cut-outs: never held back, never argued with.
+  // Written so that a NaN high limit cuts the heater out rather than letting it run.
+  const tooHot = isHeater && tempC !== null && !(tempC < rules.highLimitC);
+  if (tooHot) alerts |= TOO_HOT;
+  if (isOverloaded(rules.applianceWatts, rules.mainsVoltage, rules.ratedCurrentA)) {
+    return result(false, "safety", false, null, overloadReason(input), tempC, alerts | OVERLOAD);
+  }
+  if (tooHot) {
+    return result(false, "safety", false, null, `at or above ${rules.highLimitC} °C high limit`, tempC, alerts);
+  }
+
+  // 2. Override.
+  const override = input.override;
+  if (override !== null) {
+    return result(override.on, "override", override.on, null, override.on ? "override on" : "override off", tempC, alerts);
+  }
+
+  // 3. The time window in force, else 4. the default outside windows.
+  let cause: Cause;
+  let sense: BandSense;
+  let lowC: number | null;
+  let highC: number | null;
+  let label: string;
+  const active = input.window;
+  if (active !== null) {
+    const w = active.window;
+    if (w.mode !== "band") {
+      const on = w.mode === "on";
+      return guarded(input, on, "schedule", on ? "window on" : "window off", tempC, alerts);
+    }
+    cause = "schedule";
+    sense = bandSenseFor(rules.applianceKind);
+    lowC = w.lowC;
+    highC = w.highC;
+    label = "";
+  } else if (rules.outsideWindows === "frost") {
+    cause = "default";
+    sense = "heating";
+    lowC = rules.frostLowC;
+    highC = rules.frostHighC;
+    label = "frost protection: ";
+  } else {
+    return guarded(input, false, "default", "outside windows: off", tempC, alerts);
+  }
+
+  if (lowC === null || highC === null || !Number.isFinite(lowC) || !Number.isFinite(highC)) {
+    return guarded(input, false, cause, label + "band is missing an edge: off", tempC, alerts);
+  }
+
+  // 5. A band with no fresh reading to judge it by: the plug's fail-safe.
+  if (tempC === null) {
+    return failsafe(input, tempC, alerts | SENSOR_QUIET);
+  }
+
+  const edge = edgeReached(sense, tempC, lowC, highC);
+  if (edge !== "between") {
+    const on = edgeWantsOn(sense, edge);
+    const reason =
+      edge === "low" ? `${label}at or below ${lowC} °C low edge` : `${label}at or above ${highC} °C high edge`;
+    return guarded(input, on, cause, reason, tempC, alerts);
+  }
+  const current = input.current;
+  const between = `${label}between ${lowC} and ${highC} °C edges`;
+  if (current === null) {
+    return result(false, cause, false, null, between + ", state unknown: off", tempC, alerts);
+  }
+  return result(current.on, cause, current.on, null, between + (current.on ? ": stays on" : ": stays off"), tempC, alerts);
+}
+
+function failsafe(input: DecisionInput, tempC: null, alerts: number): Decision {
+  const { rules } = input;
+  switch (rules.failsafe) {
+    case "on":
+      return guarded(input, true, "failsafe", "sensor quiet: fail-safe on", tempC, alerts);
+    case "duty": {
+      const on = dutyCycleOn(input.nowMs, rules.failsafeDutyPercent, rules.failsafeDutyPeriodS);
+      const reason = on ? "sensor quiet: fail-safe duty cycle, on part" : "sensor quiet: fail-safe duty cycle, off part";
+      return guarded(input, on, "failsafe", reason, tempC, alerts);
+    }
+    default:
+      return guarded(input, false, "failsafe", "sensor quiet: fail-safe off", tempC, alerts);
+  }
+}
+
+/** Applies the anti-short-cycle guard to what the rule in force wants. */
+function guarded(
+  input: DecisionInput,
+  wanted: boolean,
+  cause: Cause,
+  reason: string,
+  tempC: number | null,
+  alerts: number,
+): Decision {
+  const current = input.current;
+  if (current === null || current.on === wanted) return result(wanted, cause, wanted, null, reason, tempC, alerts);
+  const { rules } = input;
+  const until = heldUntil(current, input.nowMs, rules.minOnS, rules.minOffS);
+  if (until === null) return result(wanted, cause, wanted, null, reason, tempC, alerts);
+  const held = current.on ? "; held on for the minimum on time" : "; held off for the minimum off time";
+  return result(current.on, cause, wanted, until, reason + held, tempC, alerts);
+}
+
+function overloadReason({ rules }: DecisionInput): string {
+  const amps = currentDrawA(rules.applianceWatts, rules.mainsVoltage);
+  if (!(rules.mainsVoltage > 0) || !Number.isFinite(amps)) return "appliance current unknown (check mains voltage): kept off";
+  return `appliance draws ${amps.toFixed(2)} A, over the plug's ${rules.ratedCurrentA} A rating`;
+}
+
+// One constructor, so every decision has the same shape.
+function result(
+  on: boolean,
+  cause: Cause,
+  wanted: boolean,
+  heldUntilMs: number | null,
+  reason: string,
+  readingTempC: number | null,
+  alerts: number,
+): Decision {
+  return { on, cause, wanted, heldUntilMs, reason, readingTempC, alerts: alertSet(alerts) };
+}
