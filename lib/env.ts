@@ -13,6 +13,10 @@ const schema = z.object({
   CLOCHE_TRUSTED_ORIGINS: z.string().default(""),
   /** Sign-in attempts allowed per client address in each 60 s window. */
   CLOCHE_SIGN_IN_LIMIT: z.coerce.number().int().positive().default(5),
+  /** The broker the controller listens on; the app publishes wake-ups there. */
+  CLOCHE_MQTT_URL: z.string().regex(/^mqtts?:\/\//, "CLOCHE_MQTT_URL must be an mqtt:// URL").default("mqtt://127.0.0.1:1886"),
+  /** The web app's MQTT secret; without it the app does not wake the controller (it still reloads every 30 s). */
+  CLOCHE_MQTT_WEBAPP_SECRET: z.string().min(16).optional(),
 });
 
 export type Env = z.infer<typeof schema>;

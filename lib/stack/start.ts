@@ -4,10 +4,13 @@ import { DEV_DATABASE_FOLDER, LocalDatabaseError, devDatabasePort, startLocalDat
 import { migrateDatabase } from "../../db/migrate";
 import { connect } from "../../db/client";
 import { DEMO_MEMBERS, DEMO_SITE, seedDemo } from "../../db/seed";
+import { writeDemoHistory } from "../../fakes/demo-history";
 import { buildIsCurrent, markBuilt, sourceHash } from "./build-stamp";
+import { DEVICE_SECRETS_FILE, issueDemoDeviceSecrets } from "./demo-devices";
 import { bin, persistentSecret, portIsFree, run, say, startService, stopService, waitForHttp, type Service } from "./common";
 
 const port = Number(process.env.PORT ?? 3000);
+const mqttPort = Number(process.env.CLOCHE_MQTT_PORT ?? 1886);
 const host = "127.0.0.1";
 const url = process.env.BETTER_AUTH_URL ?? `http://${host}:${port}`;
 
@@ -50,6 +53,9 @@ async function main() {
     const { created } = await seedDemo(db);
     const added = Object.values(created).reduce((a, b) => a + b, 0);
     say(added ? `demo site seeded (${added} rows)` : "demo site already present");
+    say(`issued MQTT credentials for ${await issueDemoDeviceSecrets(db, DEMO_SITE.slug)} demo devices`);
+    const history = await writeDemoHistory({ db, site: DEMO_SITE.slug, days: 60, endMs: Date.now() });
+    if (!history.skipped) say(`wrote 60 days of demo history (${history.switches} switches, ${history.minutes} minutes of readings)`);
   } finally {
     await pool.end();
   }
@@ -60,6 +66,11 @@ async function main() {
     DATABASE_URL: databaseUrl,
     BETTER_AUTH_URL: url,
     BETTER_AUTH_SECRET: persistentSecret("auth-secret", process.env.BETTER_AUTH_SECRET),
+    CLOCHE_MQTT_URL: process.env.MQTT_URL ?? `mqtt://127.0.0.1:${mqttPort}`,
+    CLOCHE_MQTT_PORT: String(mqttPort),
+    CLOCHE_MQTT_CONTROLLER_SECRET: persistentSecret("mqtt-controller-secret", process.env.CLOCHE_MQTT_CONTROLLER_SECRET),
+    CLOCHE_MQTT_WEBAPP_SECRET: persistentSecret("mqtt-webapp-secret", process.env.CLOCHE_MQTT_WEBAPP_SECRET),
+    CLOCHE_DEVICE_SECRETS: DEVICE_SECRETS_FILE,
     NEXT_TELEMETRY_DISABLED: "1",
   };
 
@@ -73,6 +84,13 @@ async function main() {
     markBuilt(hash);
   }
 
+  if (!process.env.MQTT_URL && !(await portIsFree(mqttPort, host))) {
+    throw new LocalDatabaseError(`Port ${mqttPort} on ${host} (the MQTT broker) is in use. Choose another with CLOCHE_MQTT_PORT.`);
+  }
+  const controller = startService("controller", bin("tsx"), ["controller/index.ts"], env);
+  services.push(controller);
+  // The simulated devices connect to the controller's broker and retry until it is up.
+  services.push(startService("fakes", bin("tsx"), ["fakes/index.ts"], { ...env, MQTT_URL: env.CLOCHE_MQTT_URL }));
   const web = startService("web", bin("next"), ["start", "--hostname", host, "--port", String(port)], env);
   services.push(web);
   for (const service of services) {
@@ -97,6 +115,7 @@ async function main() {
       ...DEMO_MEMBERS.map((m) => `    ${m.role.padEnd(7)} ${m.email.padEnd(width)}  password ${m.password}`),
       "",
       database ? `  MariaDB: 127.0.0.1:${database.port} (data in .data/mariadb)` : "  MariaDB: DATABASE_URL",
+      `  MQTT broker (in the controller): ${env.CLOCHE_MQTT_URL}; simulated plugs and sensors for the demo site`,
       "  Ctrl-C stops everything.",
       "",
     ].join("\n"),

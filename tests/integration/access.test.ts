@@ -5,13 +5,16 @@ import path from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
 import { and, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { auditLog, houses, sites } from "@/db/schema";
+import { auditLog, deviceCredentials, houses, sites } from "@/db/schema";
+import { verifyDeviceSecret } from "@/lib/mqtt/credentials";
 import { DEMO_MEMBERS, DEMO_SITE, demoId, seedDemo } from "@/db/seed";
 import * as sitesRoute from "@/app/api/sites/route";
 import * as siteRoute from "@/app/api/sites/[siteId]/route";
 import * as membersRoute from "@/app/api/sites/[siteId]/members/route";
 import * as housesRoute from "@/app/api/sites/[siteId]/houses/route";
 import * as houseRoute from "@/app/api/sites/[siteId]/houses/[houseId]/route";
+import * as liveRoute from "@/app/api/sites/[siteId]/live/route";
+import * as credentialRoute from "@/app/api/sites/[siteId]/devices/[kind]/[id]/credential/route";
 import { call, signIn, signUp, type Account } from "../support/http";
 
 const newHouse = {
@@ -24,7 +27,7 @@ const newHouse = {
   glazing: "single_glass",
 };
 
-type Ids = { siteId: string; houseId: string };
+type Ids = { siteId: string; houseId: string; plugId: string };
 type RouteCase = {
   file: string;
   method: "GET" | "POST" | "PATCH" | "DELETE";
@@ -47,6 +50,8 @@ const routes: RouteCase[] = [
   { file: "app/api/sites/[siteId]/houses/route.ts", method: "POST", handler: housesRoute.POST, path: (i) => `/api/sites/${i.siteId}/houses`, params: (i) => ({ siteId: i.siteId }), body: newHouse, siteScoped: true, write: true },
   { file: "app/api/sites/[siteId]/houses/[houseId]/route.ts", method: "GET", handler: houseRoute.GET, path: (i) => `/api/sites/${i.siteId}/houses/${i.houseId}`, params: (i) => ({ ...i }), siteScoped: true, write: false },
   { file: "app/api/sites/[siteId]/houses/[houseId]/route.ts", method: "PATCH", handler: houseRoute.PATCH, path: (i) => `/api/sites/${i.siteId}/houses/${i.houseId}`, params: (i) => ({ ...i }), body: { name: "Renamed house" }, siteScoped: true, write: true },
+  { file: "app/api/sites/[siteId]/live/route.ts", method: "GET", handler: liveRoute.GET, path: (i) => `/api/sites/${i.siteId}/live`, params: (i) => ({ siteId: i.siteId }), siteScoped: true, write: false },
+  { file: "app/api/sites/[siteId]/devices/[kind]/[id]/credential/route.ts", method: "POST", handler: credentialRoute.POST, path: (i) => `/api/sites/${i.siteId}/devices/plug/${i.plugId}/credential`, params: (i) => ({ siteId: i.siteId, kind: "plug", id: i.plugId }), body: {}, siteScoped: true, write: true },
   { file: "app/api/sites/[siteId]/houses/[houseId]/route.ts", method: "DELETE", handler: houseRoute.DELETE, path: (i) => `/api/sites/${i.siteId}/houses/${i.houseId}`, params: (i) => ({ ...i }), siteScoped: true, write: true },
 ];
 
@@ -61,7 +66,7 @@ function routeFiles(dir: string): string[] {
   });
 }
 
-const demo: Ids = { siteId: DEMO_SITE.id, houseId: demoId("house:glass") };
+const demo: Ids = { siteId: DEMO_SITE.id, houseId: demoId("house:glass"), plugId: demoId("plug:glass-heater") };
 const cookies: Record<string, string> = {};
 let outsider: Account;
 let outsiderSite: string;
@@ -110,9 +115,9 @@ describe.each(routes)("$method $file", (route) => {
       expect(await getDb().select().from(houses).where(eq(houses.siteId, DEMO_SITE.id))).toEqual(before);
     });
 
-    if (route.path(demo).includes(demo.houseId)) {
+    if (route.path(demo).includes(demo.houseId) || route.path(demo).includes(demo.plugId)) {
       it("does not reach another site's house through one's own site (404)", async () => {
-        const ids = { siteId: outsiderSite, houseId: demo.houseId };
+        const ids = { ...demo, siteId: outsiderSite };
         const response = await call(route.handler, {
           method: route.method,
           path: route.path(ids),
@@ -176,6 +181,19 @@ describe("what each role may change", () => {
       .from(auditLog)
       .where(and(eq(auditLog.siteId, DEMO_SITE.id), eq(auditLog.entityId, house.id)));
     expect(trail.map((t) => t.action)).toEqual(["house.create", "house.update", "house.delete"]);
+  });
+
+  it("a grower issues a device's MQTT secret; only its hash is stored, and a bad kind is a 400", async () => {
+    const params = { siteId: DEMO_SITE.id, kind: "plug", id: demoId("plug:glass-fan") };
+    const response = await call(credentialRoute.POST, { method: "POST", path: "/x", params, cookie: cookies.grower });
+    expect(response.status).toBe(201);
+    const body = (await response.json()) as { username: string; secret: string };
+    expect(body.username).toBe("fernhollow:plug:glass-fan");
+    const [row] = await getDb().select().from(deviceCredentials).where(eq(deviceCredentials.username, body.username));
+    expect(row!.secretHash).not.toContain(body.secret);
+    expect(verifyDeviceSecret(body.secret, row!.secretHash)).toBe(true);
+    const bad = await call(credentialRoute.POST, { method: "POST", path: "/x", params: { ...params, kind: "toaster" }, cookie: cookies.grower });
+    expect(bad.status).toBe(400);
   });
 
   it("only the owner changes the site's settings", async () => {

@@ -1,0 +1,133 @@
+// Readings and device presence, written in batches. A sensor reports every few
+// seconds, so rows are gathered and inserted many at a time; raw rows are kept for a
+// set time and summarised per minute for the long run.
+import { and, eq, gte, lt, sql } from "drizzle-orm";
+import type { Logger } from "pino";
+import type { Database } from "@/db/client";
+import { plugs, readingMinutes, readings, sensors } from "@/db/schema";
+
+export type ReadingRow = typeof readings.$inferInsert;
+
+export type ReadingsStoreOptions = {
+  db: Database;
+  logger: Logger;
+  flushMs: number;
+  maxBatch: number;
+  /** Rows kept in memory while MariaDB is away; the oldest go first past this. */
+  maxWaiting: number;
+  rawRetentionMs: number;
+  now: () => number;
+};
+
+type Seen = { table: "plugs" | "sensors"; id: string; online: boolean; lastSeenAt: Date };
+
+export function createReadingsStore(options: ReadingsStoreOptions) {
+  const { db, logger } = options;
+  let queue: ReadingRow[] = [];
+  const seen = new Map<string, Seen>();
+  let running: Promise<void> | undefined;
+  let retryAt = 0;
+  let failures = 0;
+  let dropped = 0;
+  let closed = false;
+  let rolledUpTo: number | undefined;
+
+  async function write() {
+    while (queue.length > 0) {
+      const batch = queue.slice(0, options.maxBatch);
+      await db.insert(readings).values(batch);
+      queue = queue.slice(batch.length);
+    }
+    for (const [key, s] of [...seen]) {
+      const table = s.table === "plugs" ? plugs : sensors;
+      await db.update(table).set({ online: s.online, lastSeenAt: s.lastSeenAt }).where(eq(table.id, s.id));
+      if (seen.get(key) === s) seen.delete(key);
+    }
+  }
+
+  function flush(force = false): Promise<void> {
+    if (running) return running;
+    if ((queue.length === 0 && seen.size === 0) || (!force && Date.now() < retryAt)) return Promise.resolve();
+    running = write()
+      .then(() => {
+        failures = 0;
+        retryAt = 0;
+      })
+      .catch((error: unknown) => {
+        failures++;
+        retryAt = Date.now() + Math.min(30_000, 250 * 2 ** Math.min(failures, 7));
+        logger.error({ err: error, waiting: queue.length, failures }, "readings write failed; keeping them to retry");
+      })
+      .finally(() => {
+        running = undefined;
+      });
+    return running;
+  }
+
+  /** Per-minute summaries of every complete minute not yet summarised; then old raw rows go. */
+  async function rollUp() {
+    const now = options.now();
+    const currentMinute = Math.floor(now / 60_000) * 60_000;
+    if (rolledUpTo === undefined) {
+      const [row] = await db.select({ last: sql<Date | null>`MAX(${readingMinutes.minute})` }).from(readingMinutes);
+      const last = row?.last ? new Date(row.last).getTime() + 60_000 : currentMinute - options.rawRetentionMs;
+      rolledUpTo = Math.max(last, currentMinute - options.rawRetentionMs);
+    }
+    if (rolledUpTo >= currentMinute) return;
+    const from = new Date(rolledUpTo);
+    const to = new Date(currentMinute);
+    const minute = sql`DATE_FORMAT(${readings.at}, '%Y-%m-%d %H:%i:00')`;
+    await db.execute(sql`
+      INSERT INTO ${readingMinutes} (sensor_id, minute, samples, temp_min_c, temp_max_c, temp_mean_c, rh_mean)
+      SELECT ${readings.sensorId}, ${minute}, COUNT(*), MIN(${readings.tempC}), MAX(${readings.tempC}), AVG(${readings.tempC}), AVG(${readings.rh})
+      FROM ${readings}
+      WHERE ${and(gte(readings.at, from), lt(readings.at, to))}
+      GROUP BY ${readings.sensorId}, ${minute}
+      ON DUPLICATE KEY UPDATE samples = VALUES(samples), temp_min_c = VALUES(temp_min_c), temp_max_c = VALUES(temp_max_c),
+        temp_mean_c = VALUES(temp_mean_c), rh_mean = VALUES(rh_mean)
+    `);
+    rolledUpTo = currentMinute;
+    const cutoff = new Date(now - options.rawRetentionMs);
+    await db.execute(sql`DELETE FROM ${readings} WHERE ${lt(readings.at, cutoff)} LIMIT 20000`);
+  }
+
+  const timer = setInterval(() => void flush(), options.flushMs);
+  timer.unref();
+  const rollTimer = setInterval(() => {
+    rollUp().catch((error: unknown) => logger.error({ err: error }, "reading roll-up failed; will try again"));
+  }, 60_000);
+  rollTimer.unref();
+
+  return {
+    add(row: ReadingRow) {
+      queue.push(row);
+      if (queue.length > options.maxWaiting) {
+        const excess = queue.length - options.maxWaiting;
+        queue.splice(0, excess);
+        dropped += excess;
+        if (dropped % 1000 < excess) logger.warn({ dropped }, "dropping the oldest waiting readings");
+      }
+      if (queue.length >= options.maxBatch) void flush();
+    },
+    seen(table: Seen["table"], id: string, online: boolean, at: Date) {
+      seen.set(`${table}:${id}`, { table, id, online, lastSeenAt: at });
+    },
+    flush: async () => {
+      await running;
+      await flush(true);
+    },
+    rollUp,
+    waiting: () => queue.length,
+    dropped: () => dropped,
+    async close() {
+      if (closed) return;
+      closed = true;
+      clearInterval(timer);
+      clearInterval(rollTimer);
+      await running;
+      await flush(true);
+    },
+  };
+}
+
+export type ReadingsStore = ReturnType<typeof createReadingsStore>;

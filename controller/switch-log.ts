@@ -1,0 +1,122 @@
+// The switch log, written in batches. A switch is recorded when its command goes out
+// and completed when the plug acknowledges it; both are upserts keyed by the command
+// id, so a row is never written twice. While MariaDB is unreachable the rows wait
+// here and go out in order when it is back.
+import { sql } from "drizzle-orm";
+import type { Logger } from "pino";
+import type { Database } from "@/db/client";
+import { switchEvents } from "@/db/schema";
+
+export type SwitchRow = typeof switchEvents.$inferInsert & { commandId: string };
+
+export type SwitchLogOptions = {
+  db: Database;
+  logger: Logger;
+  flushMs: number;
+  maxBatch: number;
+};
+
+export type SwitchLog = {
+  record: (row: SwitchRow) => void;
+  acknowledge: (commandId: string, ackAt: Date, latencyMs: number) => void;
+  /** Writes what is waiting now (ignoring any back-off). */
+  flush: () => Promise<void>;
+  waiting: () => number;
+  close: () => Promise<void>;
+};
+
+export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
+  const { db, logger } = options;
+  // Insertion order is write order. A row changed while its batch was being written
+  // gets a new version and stays queued, so the change is written too.
+  const queue = new Map<string, { row: SwitchRow; version: number }>();
+  // Rows that are in MariaDB already whose acknowledgement came later.
+  const acks = new Map<string, { ackAt: Date; latencyMs: number }>();
+  const written = new Set<string>();
+  let version = 0;
+  let running: Promise<void> | undefined;
+  let failures = 0;
+  let retryAt = 0;
+  let closed = false;
+
+  function put(row: SwitchRow) {
+    queue.delete(row.commandId);
+    queue.set(row.commandId, { row, version: ++version });
+  }
+
+  async function write() {
+    while (queue.size > 0) {
+      const batch = [...queue.values()].slice(0, options.maxBatch);
+      await db
+        .insert(switchEvents)
+        .values(batch.map((b) => b.row))
+        .onDuplicateKeyUpdate({
+          set: {
+            ackAt: sql`COALESCE(VALUES(${switchEvents.ackAt}), ${switchEvents.ackAt})`,
+            latencyMs: sql`COALESCE(VALUES(${switchEvents.latencyMs}), ${switchEvents.latencyMs})`,
+          },
+        });
+      for (const { row, version: v } of batch) {
+        written.add(row.commandId);
+        if (queue.get(row.commandId)?.version === v) queue.delete(row.commandId);
+      }
+    }
+    for (const [commandId, ack] of [...acks]) {
+      await db
+        .update(switchEvents)
+        .set({ ackAt: ack.ackAt, latencyMs: ack.latencyMs })
+        .where(sql`${switchEvents.commandId} = ${commandId}`);
+      acks.delete(commandId);
+    }
+    // Only recent command ids can still be acknowledged; keep the set small.
+    if (written.size > 50_000) written.clear();
+  }
+
+  function flush(force = false): Promise<void> {
+    if (running) return running;
+    if ((queue.size === 0 && acks.size === 0) || (!force && Date.now() < retryAt)) return Promise.resolve();
+    running = write()
+      .then(() => {
+        if (failures > 0) logger.info({ failures }, "switch log is writing again");
+        failures = 0;
+        retryAt = 0;
+      })
+      .catch((error: unknown) => {
+        failures++;
+        retryAt = Date.now() + Math.min(30_000, 250 * 2 ** Math.min(failures, 7));
+        logger.error({ err: error, waiting: queue.size + acks.size, failures }, "switch log write failed; keeping the rows to retry");
+      })
+      .finally(() => {
+        running = undefined;
+      });
+    return running;
+  }
+
+  const timer = setInterval(() => void flush(), options.flushMs);
+  timer.unref();
+
+  return {
+    record(row) {
+      put(row);
+      if (queue.size >= options.maxBatch) void flush();
+    },
+    acknowledge(commandId, ackAt, latencyMs) {
+      const queued = queue.get(commandId);
+      if (queued) put({ ...queued.row, ackAt, latencyMs });
+      else if (written.has(commandId)) acks.set(commandId, { ackAt, latencyMs });
+    },
+    async flush() {
+      await running;
+      await flush(true);
+    },
+    waiting: () => queue.size + acks.size,
+    async close() {
+      if (closed) return;
+      closed = true;
+      clearInterval(timer);
+      await running;
+      await flush(true);
+      if (queue.size || acks.size) logger.error({ rows: queue.size + acks.size }, "switch log closed with rows unwritten");
+    },
+  };
+}

@@ -1,0 +1,140 @@
+import "server-only";
+import { and, eq, gte, inArray, isNull, sql } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { alerts, plugs, readings, sensors, switchEvents } from "@/db/schema";
+
+export type SensorLive = {
+  sensorId: string;
+  houseId: string;
+  online: boolean;
+  lastSeenAt: Date | null;
+  latest: { tempC: number | null; rh: number | null; at: Date } | null;
+  last24h: { tempMinC: number | null; tempMaxC: number | null; rhMin: number | null; rhMax: number | null } | null;
+};
+
+export type PlugLive = {
+  plugId: string;
+  houseId: string;
+  online: boolean;
+  lastSeenAt: Date | null;
+  /** From the switch log: the state the plug was last switched to, why, and since when. */
+  on: boolean | null;
+  cause: (typeof switchEvents.$inferSelect)["cause"] | null;
+  since: Date | null;
+  acknowledged: boolean | null;
+};
+
+export type SiteLive = {
+  at: Date;
+  sensors: SensorLive[];
+  plugs: PlugLive[];
+  openAlerts: { id: number; kind: string; message: string; raisedAt: Date; houseId: string | null; plugId: string | null }[];
+};
+
+const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
+
+/** What is happening in a site now: latest readings with their 24 h range, each plug's state. */
+export async function getSiteLive({ siteId, now = new Date() }: { siteId: string; now?: Date }): Promise<SiteLive> {
+  const db = getDb();
+  const [sensorRows, plugRows, openAlerts] = await Promise.all([
+    db
+      .select({ id: sensors.id, houseId: sensors.houseId, online: sensors.online, lastSeenAt: sensors.lastSeenAt })
+      .from(sensors)
+      .where(eq(sensors.siteId, siteId)),
+    db
+      .select({ id: plugs.id, houseId: plugs.houseId, online: plugs.online, lastSeenAt: plugs.lastSeenAt })
+      .from(plugs)
+      .where(eq(plugs.siteId, siteId)),
+    db
+      .select({
+        id: alerts.id,
+        kind: alerts.kind,
+        message: alerts.message,
+        raisedAt: alerts.raisedAt,
+        houseId: alerts.houseId,
+        plugId: alerts.plugId,
+      })
+      .from(alerts)
+      .where(and(eq(alerts.siteId, siteId), isNull(alerts.clearedAt)))
+      .orderBy(sql`${alerts.raisedAt} DESC`)
+      .limit(50),
+  ]);
+
+  const sensorIds = sensorRows.map((s) => s.id);
+  const plugIds = plugRows.map((p) => p.id);
+  const dayAgo = new Date(now.getTime() - 24 * 3600_000);
+
+  const ranges = sensorIds.length
+    ? await db
+        .select({
+          sensorId: readings.sensorId,
+          lastAt: sql<Date>`MAX(${readings.at})`,
+          tempMinC: sql<number | null>`MIN(${readings.tempC})`,
+          tempMaxC: sql<number | null>`MAX(${readings.tempC})`,
+          rhMin: sql<number | null>`MIN(${readings.rh})`,
+          rhMax: sql<number | null>`MAX(${readings.rh})`,
+        })
+        .from(readings)
+        .where(and(inArray(readings.sensorId, sensorIds), gte(readings.at, dayAgo)))
+        .groupBy(readings.sensorId)
+    : [];
+  const latestRows = ranges.length
+    ? await db
+        .select({ sensorId: readings.sensorId, tempC: readings.tempC, rh: readings.rh, at: readings.at })
+        .from(readings)
+        .where(
+          sql`(${readings.sensorId}, ${readings.at}) IN (${sql.join(
+            ranges.map((r) => sql`(${r.sensorId}, ${new Date(r.lastAt)})`),
+            sql`, `,
+          )})`,
+        )
+    : [];
+
+  const lastSwitch = plugIds.length
+    ? await db
+        .select({
+          plugId: switchEvents.plugId,
+          toOn: switchEvents.toOn,
+          cause: switchEvents.cause,
+          at: switchEvents.at,
+          ackAt: switchEvents.ackAt,
+          id: switchEvents.id,
+        })
+        .from(switchEvents)
+        .where(
+          sql`${switchEvents.id} IN (SELECT MAX(id) FROM ${switchEvents} WHERE ${inArray(switchEvents.plugId, plugIds)} GROUP BY plug_id)`,
+        )
+    : [];
+
+  return {
+    at: now,
+    sensors: sensorRows.map((s) => {
+      const range = ranges.find((r) => r.sensorId === s.id);
+      const latest = latestRows.find((r) => r.sensorId === s.id);
+      return {
+        sensorId: s.id,
+        houseId: s.houseId,
+        online: s.online,
+        lastSeenAt: s.lastSeenAt,
+        latest: latest ? { tempC: latest.tempC, rh: latest.rh, at: latest.at } : null,
+        last24h: range
+          ? { tempMinC: num(range.tempMinC), tempMaxC: num(range.tempMaxC), rhMin: num(range.rhMin), rhMax: num(range.rhMax) }
+          : null,
+      };
+    }),
+    plugs: plugRows.map((p) => {
+      const event = lastSwitch.find((e) => e.plugId === p.id);
+      return {
+        plugId: p.id,
+        houseId: p.houseId,
+        online: p.online,
+        lastSeenAt: p.lastSeenAt,
+        on: event ? event.toOn : null,
+        cause: event?.cause ?? null,
+        since: event ? (event.ackAt ?? event.at) : null,
+        acknowledged: event ? event.ackAt !== null : null,
+      };
+    }),
+    openAlerts,
+  };
+}

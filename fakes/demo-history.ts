@@ -1,0 +1,178 @@
+// The demo's past: the real schedule and decision code run against the thermal model
+// of each demo house over the last N simulated days, minute by minute, so that the
+// demo starts with readings and switches that follow from its own settings.
+//
+//   tsx fakes/demo-history.ts [days]     (DATABASE_URL; skipped when history exists)
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import { createHash } from "node:crypto";
+import { and, count, eq, inArray, sql } from "drizzle-orm";
+import { connect, type Database } from "../db/client";
+import { plugs, readingMinutes, readings, switchEvents } from "../db/schema";
+import { loadConfig, type PlugConfig, type SiteConfig } from "../controller/config";
+import { compilePlugSchedule } from "../controller/plug-schedule";
+import { decide, type PlugRules } from "../lib/control";
+import { createSiteModel, houseParams } from "./house-model";
+import { loadSiteLayout } from "./layout";
+
+const MINUTE = 60_000;
+/** Raw readings older than this are kept only as per-minute rows (as the controller does). */
+const RAW_DAYS = 7;
+
+export type DemoHistoryOptions = { db: Database; site: string; days: number; endMs: number; seed?: number };
+export type DemoHistorySummary = { skipped: boolean; switches: number; minutes: number; raw: number };
+
+function rulesOf(plug: PlugConfig, site: SiteConfig): PlugRules {
+  return {
+    applianceKind: plug.applianceKind,
+    applianceWatts: plug.applianceWatts,
+    ratedCurrentA: plug.ratedCurrentA,
+    mainsVoltage: site.mainsVoltage,
+    highLimitC: plug.highLimitC,
+    failsafe: plug.failsafe,
+    failsafeDutyPercent: plug.failsafeDutyPercent,
+    failsafeDutyPeriodS: plug.failsafeDutyPeriodS,
+    staleAfterS: plug.staleAfterS,
+    outsideWindows: plug.outsideWindows,
+    frostLowC: plug.frostLowC,
+    frostHighC: plug.frostHighC,
+    minOnS: plug.minOnS,
+    minOffS: plug.minOffS,
+  };
+}
+
+/** A stable command id for a historical switch, so a rerun cannot duplicate it. */
+function historyId(plugId: string, atMs: number) {
+  return `history-${createHash("sha1").update(`${plugId}:${atMs}`).digest("hex").slice(0, 32)}`;
+}
+
+export async function writeDemoHistory(options: DemoHistoryOptions): Promise<DemoHistorySummary> {
+  const { db } = options;
+  const layout = await loadSiteLayout(db, options.site);
+  const plugIds = layout.plugs.map((p) => p.id);
+  if (plugIds.length === 0) return { skipped: true, switches: 0, minutes: 0, raw: 0 };
+  const [existing] = await db.select({ n: count() }).from(switchEvents).where(inArray(switchEvents.plugId, plugIds));
+  if ((existing?.n ?? 0) > 0) return { skipped: true, switches: 0, minutes: 0, raw: 0 };
+
+  const config = await loadConfig(db, new Date(options.endMs), [options.site]);
+  const site = config.sites[0]!;
+  const endMs = Math.floor(options.endMs / MINUTE) * MINUTE;
+  const startMs = endMs - options.days * 24 * 3600_000;
+  const rawFromMs = endMs - RAW_DAYS * 24 * 3600_000;
+
+  const runtimes = config.plugs.map((plug) => ({
+    plug,
+    rules: rulesOf(plug, site),
+    schedule: compilePlugSchedule(
+      config.schedules.filter((s) => s.plugId === plug.id),
+      site.timeZone,
+    ),
+    on: false,
+    sinceMs: startMs - 3600_000,
+  }));
+  const sensorOfHouse = new Map(layout.sensors.map((s) => [s.houseId, s.id]));
+  const model = createSiteModel({
+    timeZone: site.timeZone,
+    startMs,
+    stepMs: MINUTE,
+    seed: options.seed ?? 7,
+    houses: layout.houses.map((h) => ({ id: h.id, params: houseParams(h.shape) })),
+    heatW: (houseId) =>
+      runtimes.reduce((sum, r) => (r.plug.houseId === houseId && r.on ? sum + r.plug.applianceWatts : sum), 0),
+  });
+
+  const switches: (typeof switchEvents.$inferInsert)[] = [];
+  const minutes: (typeof readingMinutes.$inferInsert)[] = [];
+  const raw: (typeof readings.$inferInsert)[] = [];
+  const written = { switches: 0, minutes: 0, raw: 0 };
+
+  async function flush(final = false) {
+    const limit = final ? 1 : 2000;
+    await db.transaction(async (tx) => {
+      while (switches.length >= limit || (final && switches.length)) {
+        const batch = switches.splice(0, 1000);
+        await tx.insert(switchEvents).values(batch).onDuplicateKeyUpdate({ set: { commandId: sql`${switchEvents.commandId}` } });
+        written.switches += batch.length;
+      }
+      while (minutes.length >= limit || (final && minutes.length)) {
+        const batch = minutes.splice(0, 1000);
+        await tx.insert(readingMinutes).values(batch).onDuplicateKeyUpdate({ set: { samples: sql`${readingMinutes.samples}` } });
+        written.minutes += batch.length;
+      }
+      while (raw.length >= limit || (final && raw.length)) {
+        const batch = raw.splice(0, 1000);
+        await tx.insert(readings).values(batch);
+        written.raw += batch.length;
+      }
+    });
+  }
+
+  for (let t = startMs; t < endMs; t += MINUTE) {
+    model.advanceTo(t);
+    const tempBySensor = new Map<string, number>();
+    for (const house of layout.houses) {
+      const sensorId = sensorOfHouse.get(house.id);
+      if (!sensorId) continue;
+      const snap = model.snapshot(house.id);
+      const tempC = Math.round(snap.airC * 100) / 100;
+      const rh = Math.round(snap.rh * 100) / 100;
+      tempBySensor.set(sensorId, tempC);
+      const at = new Date(t);
+      minutes.push({ sensorId, minute: at, samples: 1, tempMinC: tempC, tempMaxC: tempC, tempMeanC: tempC, rhMean: rh });
+      if (t >= rawFromMs) raw.push({ sensorId, at, tempC, rh, battery: 0.9 });
+    }
+    for (const r of runtimes) {
+      const tempC = r.plug.sensorId ? (tempBySensor.get(r.plug.sensorId) ?? null) : null;
+      const decision = decide({
+        rules: r.rules,
+        nowMs: t,
+        reading: tempC === null ? null : { tempC, atMs: t },
+        current: { on: r.on, sinceMs: r.sinceMs },
+        override: null,
+        window: r.schedule.activeAt(t),
+      });
+      if (decision.on === r.on) continue;
+      // Plugs answer on a quiet loopback network in a fraction of a second.
+      const latencyMs = 120 + ((t / MINUTE) % 7) * 35;
+      switches.push({
+        plugId: r.plug.id,
+        at: new Date(t),
+        fromOn: r.on,
+        toOn: decision.on,
+        cause: decision.cause,
+        readingTempC: decision.readingTempC,
+        readingAt: decision.readingTempC === null ? null : new Date(t),
+        commandId: historyId(r.plug.id, t),
+        ackAt: new Date(t + latencyMs),
+        latencyMs,
+      });
+      r.on = decision.on;
+      r.sinceMs = t;
+    }
+    if (minutes.length >= 6000) await flush();
+  }
+  await flush(true);
+  // The plugs' rows say when they were last heard from, as the controller would have.
+  await db
+    .update(plugs)
+    .set({ lastSeenAt: new Date(endMs) })
+    .where(and(eq(plugs.siteId, site.id), inArray(plugs.id, plugIds)));
+  return { skipped: false, ...written };
+}
+
+if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
+  const url = process.env.DATABASE_URL;
+  if (!url) {
+    console.error("DATABASE_URL is not set.");
+    process.exit(2);
+  }
+  const days = Number(process.argv[2] ?? 60);
+  const { db, pool } = connect(url);
+  try {
+    const began = Date.now();
+    const summary = await writeDemoHistory({ db, site: process.env.CLOCHE_FAKES_SITE ?? "fernhollow", days, endMs: Date.now() });
+    console.log(summary.skipped ? "demo history present; nothing to do." : `demo history written in ${Date.now() - began} ms: ${JSON.stringify(summary)}`);
+  } finally {
+    await pool.end();
+  }
+}
