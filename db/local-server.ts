@@ -11,6 +11,7 @@ import os from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import mysql from "mysql2/promise";
+import { PackageError, ensureProgram, isRoot } from "../lib/stack/debian";
 
 const projectRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 
@@ -38,55 +39,19 @@ export class LocalDatabaseError extends Error {}
 
 type Instance = { port: number; password: string };
 
-const SEARCH_DIRS = ["/usr/sbin", "/usr/bin", "/usr/local/sbin", "/usr/local/bin"];
-
-function findProgram(names: string[]): string | undefined {
-  const dirs = [...(process.env.PATH ?? "").split(path.delimiter).filter(Boolean), ...SEARCH_DIRS];
-  for (const name of names) {
-    for (const dir of dirs) {
-      const candidate = path.join(dir, name);
-      if (existsSync(candidate)) return candidate;
-    }
-  }
-  return undefined;
-}
-
-function isRoot() {
-  return typeof process.getuid === "function" && process.getuid() === 0;
-}
-
-/** Installs Debian's mariadb-server when it is missing, without starting the system's own service. */
+/** Debian's mariadbd and mariadb-install-db, installed when missing. */
 function ensureMariadbInstalled(log: (line: string) => void) {
-  const found = findProgram(["mariadbd", "mysqld"]);
-  const installer = findProgram(["mariadb-install-db", "mysql_install_db"]);
-  if (found && installer) return { mariadbd: found, installDb: installer };
-  if (!isRoot()) {
-    throw new LocalDatabaseError(
-      "MariaDB is not installed. Install Debian's package first:\n" +
-        "    sudo apt-get update && sudo apt-get install -y mariadb-server\n" +
-        "or point DATABASE_URL at a MariaDB server you already run.",
-    );
-  }
-  log("MariaDB is not installed: installing Debian's mariadb-server (apt-get)…");
-  // policy-rc.d answering 101 keeps the package from starting the system-wide server on 3306.
-  const policy = "/usr/sbin/policy-rc.d";
-  const ownPolicy = !existsSync(policy);
-  if (ownPolicy) writeFileSync(policy, "#!/bin/sh\nexit 101\n", { mode: 0o755 });
   try {
-    const env = { ...process.env, DEBIAN_FRONTEND: "noninteractive" };
-    for (const args of [["update"], ["install", "-y", "--no-install-recommends", "mariadb-server"]]) {
-      const result = spawnSync("apt-get", args, { stdio: ["ignore", "inherit", "inherit"], env });
-      if (result.status !== 0) {
-        throw new LocalDatabaseError(`apt-get ${args.join(" ")} failed (exit ${result.status}); see its output above.`);
-      }
+    const why = "MariaDB";
+    const mariadbd = ensureProgram(["mariadbd", "mysqld"], "mariadb-server", why, log);
+    const installDb = ensureProgram(["mariadb-install-db", "mysql_install_db"], "mariadb-server", why, log);
+    return { mariadbd, installDb };
+  } catch (error) {
+    if (error instanceof PackageError) {
+      throw new LocalDatabaseError(`${error.message}\nor point DATABASE_URL at a MariaDB server you already run.`);
     }
-  } finally {
-    if (ownPolicy) rmSync(policy, { force: true });
+    throw error;
   }
-  const mariadbd = findProgram(["mariadbd", "mysqld"]);
-  const installDb = findProgram(["mariadb-install-db", "mysql_install_db"]);
-  if (!mariadbd || !installDb) throw new LocalDatabaseError("mariadb-server installed, but mariadbd was not found.");
-  return { mariadbd, installDb };
 }
 
 function processAlive(pid: number) {
