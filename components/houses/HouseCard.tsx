@@ -2,13 +2,14 @@ import type { HouseOverview } from "@/db/queries/houses";
 import { GLAZING_LABELS, HOUSE_KIND_LABELS } from "@/lib/domain";
 import { Card } from "@/components/ui/Card";
 import { formatMetres } from "./format";
+import { HouseAlerts } from "./LiveAlerts";
+import { LiveReadings } from "./LiveReadings";
 import { PlugList } from "./PlugList";
-import { ReadingsPlaceholder } from "./ReadingsPlaceholder";
 import { SensorList } from "./SensorList";
 
-type HouseCardProps = { house: HouseOverview; now: Date; timeZone: string; mainsVoltage: number };
+type HouseCardProps = { house: HouseOverview; timeZone: string; mainsVoltage: number };
 
-export function HouseCard({ house, now, timeZone, mainsVoltage }: HouseCardProps) {
+export function HouseCard({ house, timeZone, mainsVoltage }: HouseCardProps) {
   const area = house.lengthM * house.widthM;
   const headingId = `house-${house.id}`;
   return (
@@ -22,7 +23,24 @@ export function HouseCard({ house, now, timeZone, mainsVoltage }: HouseCardProps
         </span>
       </header>
 
-      <dl className="grid grid-cols-2 gap-x-4 gap-y-2 text-sm">
+      <HouseAlerts houseId={house.id} />
+
+      <LiveReadings
+        houseName={house.name}
+        sensors={house.sensors.map(({ id, name, lastSeenAt }) => ({ id, name, lastSeenAt }))}
+      />
+
+      <section aria-label={`Plugs in ${house.name}`}>
+        <h3 className="mb-2 text-xs font-semibold uppercase tracking-wide text-frost-600">Plugs</h3>
+        <PlugList plugs={house.plugs} timeZone={timeZone} mainsVoltage={mainsVoltage} />
+      </section>
+
+      <section aria-label={`Sensors in ${house.name}`}>
+        <h3 className="mb-2 text-xs font-semibold uppercase tracking-wide text-frost-600">Sensors</h3>
+        <SensorList sensors={house.sensors} timeZone={timeZone} />
+      </section>
+
+      <dl className="grid grid-cols-2 gap-x-4 gap-y-2 border-t border-frost-100 pt-3 text-sm">
         <div>
           <dt className="text-xs text-frost-600">Floor area</dt>
           <dd className="text-frost-900">
@@ -34,18 +52,6 @@ export function HouseCard({ house, now, timeZone, mainsVoltage }: HouseCardProps
           <dd className="text-frost-900">{GLAZING_LABELS[house.glazing]}</dd>
         </div>
       </dl>
-
-      <ReadingsPlaceholder hasSensor={house.sensors.length > 0} />
-
-      <section aria-label={`Plugs in ${house.name}`}>
-        <h3 className="mb-2 text-xs font-semibold uppercase tracking-wide text-frost-600">Plugs</h3>
-        <PlugList plugs={house.plugs} now={now} timeZone={timeZone} mainsVoltage={mainsVoltage} />
-      </section>
-
-      <section aria-label={`Sensors in ${house.name}`}>
-        <h3 className="mb-2 text-xs font-semibold uppercase tracking-wide text-frost-600">Sensors</h3>
-        <SensorList sensors={house.sensors} now={now} timeZone={timeZone} />
-      </section>
     </Card>
   );
 }

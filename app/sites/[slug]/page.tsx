@@ -1,8 +1,12 @@
 import type { Metadata } from "next";
 import { HouseCard } from "@/components/houses/HouseCard";
+import { SiteAlerts } from "@/components/houses/LiveAlerts";
+import { LiveSite } from "@/components/houses/LiveSite";
+import { toSiteLiveJson } from "@/components/houses/live-data";
 import { NoHouses } from "@/components/houses/NoHouses";
 import { HeaterSafetyNote } from "@/components/safety/HeaterSafetyNote";
 import { getHouseOverviewsBySite } from "@/db/queries/houses";
+import { getSiteLive } from "@/db/queries/live";
 import { getCurrentSite } from "./current-site";
 
 type Props = { params: Promise<{ slug: string }> };
@@ -14,29 +18,35 @@ export async function generateMetadata({ params }: Props): Promise<Metadata> {
 
 export default async function HousesPage({ params }: Props) {
   const { site } = await getCurrentSite((await params).slug);
-  const houses = await getHouseOverviewsBySite({ siteId: site.id });
-  const now = new Date();
+  const [houses, live] = await Promise.all([getHouseOverviewsBySite({ siteId: site.id }), getSiteLive({ siteId: site.id })]);
+  const names = {
+    houses: houses.map(({ id, name }) => ({ id, name })),
+    plugs: houses.flatMap((house) => house.plugs.map(({ id, name }) => ({ id, name }))),
+  };
 
   return (
-    <div className="flex flex-col gap-6">
-      <div>
-        <h1 className="text-2xl font-semibold text-frost-950">Houses</h1>
-        <p className="mt-1 text-sm text-frost-600">
-          {houses.length === 0 ? site.name : `${houses.length} ${houses.length === 1 ? "house" : "houses"} in ${site.name}`}
-        </p>
-      </div>
-
-      {houses.length === 0 ? (
-        <NoHouses siteName={site.name} />
-      ) : (
-        <div className="grid gap-4 md:grid-cols-2">
-          {houses.map((house) => (
-            <HouseCard key={house.id} house={house} now={now} timeZone={site.timeZone} mainsVoltage={site.mainsVoltage} />
-          ))}
+    <LiveSite siteId={site.id} timeZone={site.timeZone} initial={toSiteLiveJson(live)}>
+      <div className="flex flex-col gap-6">
+        <div>
+          <h1 className="text-2xl font-semibold text-frost-950">Houses</h1>
+          <p className="mt-1 text-sm text-frost-600">
+            {houses.length === 0 ? site.name : `${houses.length} ${houses.length === 1 ? "house" : "houses"} in ${site.name}`}
+          </p>
+          <SiteAlerts names={names} />
         </div>
-      )}
 
-      <HeaterSafetyNote />
-    </div>
+        {houses.length === 0 ? (
+          <NoHouses siteName={site.name} />
+        ) : (
+          <div className="grid gap-4 md:grid-cols-2">
+            {houses.map((house) => (
+              <HouseCard key={house.id} house={house} timeZone={site.timeZone} mainsVoltage={site.mainsVoltage} />
+            ))}
+          </div>
+        )}
+
+        <HeaterSafetyNote />
+      </div>
+    </LiveSite>
   );
 }

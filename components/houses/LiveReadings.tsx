@@ -1,0 +1,142 @@
+"use client";
+
+import { formatInstant } from "./format";
+import type { SensorLiveJson } from "./live-data";
+import { formatAgo, formatRh, formatTemp } from "./live-format";
+import { ReadingsPlaceholder } from "./ReadingsPlaceholder";
+import { useNow, useSiteLive } from "./use-site-live";
+
+const STALE_AFTER_MS = 10 * 60_000;
+
+type LiveReadingsProps = { houseName: string; sensors: { id: string; name: string; lastSeenAt: Date | null }[] };
+
+/** Each sensor's latest temperature and humidity with its 24 h range, or an honest placeholder. */
+export function LiveReadings({ houseName, sensors }: LiveReadingsProps) {
+  const live = useSiteLive();
+  const now = useNow();
+  if (sensors.length === 0) return <ReadingsPlaceholder hasSensor={false} />;
+
+  const rows = sensors.map((sensor) => ({ sensor, live: live?.data.sensors.find((s) => s.sensorId === sensor.id) }));
+  if (!rows.some((row) => row.live?.latest)) {
+    const heardBefore = rows.some((row) => (row.live ? row.live.lastSeenAt : row.sensor.lastSeenAt) !== null);
+    return <ReadingsPlaceholder hasSensor heardBefore={heardBefore} />;
+  }
+
+  const timeZone = live?.timeZone ?? "UTC";
+  return (
+    <div className="flex flex-col gap-2">
+      {rows.map(({ sensor, live: reading }) =>
+        reading?.latest ? (
+          <SensorReading
+            key={sensor.id}
+            label={sensors.length > 1 ? sensor.name : null}
+            houseName={houseName}
+            reading={reading}
+            now={now}
+            timeZone={timeZone}
+          />
+        ) : (
+          <p key={sensor.id} className="rounded-lg border border-dashed border-frost-300 px-3 py-2 text-sm text-frost-700">
+            <span className="font-medium">{sensor.name}</span>: no readings in the last 24 hours
+          </p>
+        ),
+      )}
+    </div>
+  );
+}
+
+type SensorReadingProps = {
+  label: string | null;
+  houseName: string;
+  reading: SensorLiveJson;
+  now: Date;
+  timeZone: string;
+};
+
+function SensorReading({ label, houseName, reading, now, timeZone }: SensorReadingProps) {
+  const latest = reading.latest!;
+  const at = new Date(latest.at);
+  const stale = now.getTime() - at.getTime() > STALE_AFTER_MS;
+  const range = reading.last24h;
+  const where = label ? `${houseName}, ${label}` : houseName;
+
+  return (
+    <section
+      aria-label={`Readings in ${where}`}
+      className="rounded-lg bg-frost-50 px-3 py-3 ring-1 ring-frost-200 sm:px-4"
+    >
+      {label ? <h4 className="mb-1 text-xs font-medium text-frost-600">{label}</h4> : null}
+      <div className="flex flex-wrap items-end justify-between gap-x-4 gap-y-1">
+        <p aria-live="polite" aria-atomic="true" className="flex items-baseline gap-3 tabular-nums">
+          {latest.tempC !== null ? (
+            <span className={`text-4xl font-semibold tracking-tight ${stale ? "text-frost-500" : "text-frost-950"}`}>
+              {formatTemp(latest.tempC)}
+              <span className="ml-0.5 text-xl font-medium text-frost-500">°C</span>
+            </span>
+          ) : (
+            <span className="text-base text-frost-600">No temperature in the last reading</span>
+          )}
+          {latest.rh !== null ? (
+            <span className="text-base text-frost-700">
+              {formatRh(latest.rh)} <span className="text-sm text-frost-500">RH</span>
+            </span>
+          ) : null}
+        </p>
+        <p className={`text-xs ${stale ? "font-medium text-soil-700" : "text-frost-600"}`}>
+          {stale ? (
+            <span className="mr-1 inline-block rounded bg-soil-100 px-1.5 py-px text-soil-800 ring-1 ring-soil-200">
+              Not recent
+            </span>
+          ) : null}
+          as of{" "}
+          <time dateTime={latest.at} title={formatInstant(at, timeZone)}>
+            {formatAgo(at, now)}
+          </time>
+        </p>
+      </div>
+      {range && range.tempMinC !== null && range.tempMaxC !== null ? (
+        <DayRange minC={range.tempMinC} maxC={range.tempMaxC} nowC={latest.tempC} rhMin={range.rhMin} rhMax={range.rhMax} />
+      ) : null}
+    </section>
+  );
+}
+
+type DayRangeProps = { minC: number; maxC: number; nowC: number | null; rhMin: number | null; rhMax: number | null };
+
+/** The last 24 h low and high, with where the latest reading sits between them. */
+function DayRange({ minC, maxC, nowC, rhMin, rhMax }: DayRangeProps) {
+  const span = maxC - minC;
+  const position = nowC === null ? null : span > 0 ? Math.min(1, Math.max(0, (nowC - minC) / span)) : 0.5;
+  return (
+    <div className="mt-3">
+      <p className="sr-only">
+        Last 24 hours: low {formatTemp(minC)} °C, high {formatTemp(maxC)} °C
+        {rhMin !== null && rhMax !== null ? `, humidity ${formatRh(rhMin)} to ${formatRh(rhMax)}` : ""}.
+      </p>
+      <div aria-hidden="true" className="flex items-center gap-2 text-xs tabular-nums text-frost-700">
+        <span className="w-16 shrink-0">
+          <span className="text-frost-400">↓</span> {formatTemp(minC)}°
+        </span>
+        <span className="relative h-1.5 flex-1 rounded-full bg-linear-to-r from-frost-200 to-soil-200">
+          {position !== null ? (
+            <span
+              className="absolute top-1/2 size-3 -translate-x-1/2 -translate-y-1/2 rounded-full border-2 border-white bg-frost-800 shadow-sm"
+              style={{ left: `${position * 100}%` }}
+            />
+          ) : null}
+        </span>
+        <span className="w-16 shrink-0 text-right">
+          <span className="text-frost-400">↑</span> {formatTemp(maxC)}°
+        </span>
+      </div>
+      <p aria-hidden="true" className="mt-1 flex justify-between text-[11px] text-frost-500">
+        <span>last 24 h</span>
+        {rhMin !== null && rhMax !== null ? (
+          <span className="tabular-nums">
+            RH {Math.round(rhMin)}–{formatRh(rhMax)}
+          </span>
+        ) : null}
+      </p>
+    </div>
+  );
+}

@@ -1,0 +1,65 @@
+import type { PlugLiveJson } from "./live-data";
+
+/** One decimal, with a true minus sign (frost readings are often below zero) and no "−0.0". */
+export function formatTemp(tempC: number): string {
+  const tenths = Math.round(tempC * 10);
+  if (tenths === 0) return "0.0";
+  return `${tenths < 0 ? "−" : ""}${(Math.abs(tenths) / 10).toFixed(1)}`;
+}
+
+export const formatRh = (rh: number) => `${Math.round(rh)} %`;
+
+/** "just now", "12 s ago", "4 min ago", "3 h ago", "2 d ago": short enough for a phone line. */
+export function formatAgo(at: Date, now: Date): string {
+  const seconds = Math.max(0, Math.floor((now.getTime() - at.getTime()) / 1000));
+  if (seconds < 5) return "just now";
+  if (seconds < 60) return `${seconds} s ago`;
+  const minutes = Math.floor(seconds / 60);
+  if (minutes < 60) return `${minutes} min ago`;
+  const hours = Math.floor(minutes / 60);
+  if (hours < 24) return `${hours} h ago`;
+  return `${Math.floor(hours / 24)} d ago`;
+}
+
+const dayKey = (at: Date, timeZone: string) =>
+  new Intl.DateTimeFormat("en-CA", { year: "numeric", month: "2-digit", day: "2-digit", timeZone }).format(at);
+
+/** "14:05" when it is the same site-local day as `now`, else "3 Mar, 14:05". */
+export function formatSiteTime(at: Date, now: Date, timeZone: string): string {
+  const time = new Intl.DateTimeFormat("en-GB", { hour: "2-digit", minute: "2-digit", hourCycle: "h23", timeZone }).format(at);
+  if (dayKey(at, timeZone) === dayKey(now, timeZone)) return time;
+  const day = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", timeZone }).format(at);
+  return `${day}, ${time}`;
+}
+
+export function causeWords(plug: Pick<PlugLiveJson, "cause" | "on">): string {
+  switch (plug.cause) {
+    case "schedule":
+      return "Schedule";
+    case "override":
+      return "Manual override";
+    case "safety":
+      return "Safety cut-out";
+    case "failsafe":
+      return "Fail-safe";
+    case "resync":
+      return "Re-synced after restart";
+    case "default":
+      // Outside schedule windows a plug is either kept off or held in the frost band;
+      // only the frost band switches it on, and an "off" can be either, so say only what is sure.
+      return plug.on ? "Frost protection" : "Outside schedule times";
+    case null:
+      return "Not switched by Cloche yet";
+  }
+}
+
+const ALERT_WORDS: Record<string, string> = {
+  sensor_quiet: "Sensor quiet",
+  plug_unanswered: "Plug not answering",
+  plug_offline: "Plug offline",
+  too_hot: "Too warm",
+  too_cold: "Too cold",
+  overload: "Plug overloaded",
+};
+
+export const alertWords = (kind: string) => ALERT_WORDS[kind] ?? kind.replace(/_/g, " ").replace(/^./, (c) => c.toUpperCase());
