@@ -4,11 +4,14 @@ import { randomBytes } from "node:crypto";
 import { LocalDatabaseError, TEST_DATABASE_FOLDER, startLocalDatabase, type LocalDatabase } from "../../db/local-server";
 import { migrateDatabase } from "../../db/migrate";
 import { bin, run, say } from "./common";
+import { ensureProgram } from "./debian";
 
 let database: LocalDatabase | undefined;
 
 async function main() {
   const began = Date.now();
+  // The controller is also tested against an external broker: Debian's mosquitto.
+  ensureProgram(["mosquitto"], "mosquitto", "mosquitto (MQTT broker for the external-broker test)", (line) => say(line));
   database = await startLocalDatabase({ folder: TEST_DATABASE_FOLDER, port: 0, database: "cloche_test", fresh: true });
   await migrateDatabase(database.url);
   say(`test database ready on 127.0.0.1:${database.port}`);
