@@ -2,6 +2,7 @@
 // limits, sensors, schedules and the overrides that are or will be active.
 import { and, desc, eq, gt, inArray, isNull, or, sql } from "drizzle-orm";
 import type { Database } from "@/db/client";
+import type { PlugRules } from "@/lib/control";
 import {
   houses,
   overrides,
@@ -167,4 +168,24 @@ export async function loadLastSwitches(db: Database, plugIds: string[]): Promise
     .from(switchEvents)
     .innerJoin(latest, and(eq(latest.plugId, switchEvents.plugId), eq(latest.at, switchEvents.at)));
   return rows.map((r) => ({ plugId: r.plugId, on: r.on, at: r.ackAt ?? r.at }));
+}
+
+/** A plug's settings with its house's limit and its site's voltage, as the decision takes them. */
+export function rulesOf(plug: PlugConfig, site: SiteConfig): PlugRules {
+  return {
+    applianceKind: plug.applianceKind,
+    applianceWatts: plug.applianceWatts,
+    ratedCurrentA: plug.ratedCurrentA,
+    mainsVoltage: site.mainsVoltage,
+    highLimitC: plug.highLimitC,
+    failsafe: plug.failsafe,
+    failsafeDutyPercent: plug.failsafeDutyPercent,
+    failsafeDutyPeriodS: plug.failsafeDutyPeriodS,
+    staleAfterS: plug.staleAfterS,
+    outsideWindows: plug.outsideWindows,
+    frostLowC: plug.frostLowC,
+    frostHighC: plug.frostHighC,
+    minOnS: plug.minOnS,
+    minOffS: plug.minOffS,
+  };
 }

@@ -21,7 +21,7 @@ import {
 import { compilePlugSchedule, type PlugSchedule } from "./plug-schedule";
 import { createAlerts, type Alerts } from "./alerts";
 import { createBroker, type Broker } from "./broker";
-import { loadConfig, loadLastSwitches, loadLatestReadings, type Config, type OverrideConfig, type PlugConfig, type SiteConfig } from "./config";
+import { loadConfig, loadLastSwitches, loadLatestReadings, rulesOf, type Config, type OverrideConfig, type PlugConfig, type SiteConfig } from "./config";
 import { lookupDeviceSecret } from "@/db/device-credentials";
 import { createReadingsStore, type ReadingsStore } from "./readings-store";
 import { createSwitchLog, type SwitchLog } from "./switch-log";
@@ -111,24 +111,6 @@ export type Controller = {
   close: () => Promise<void>;
 };
 
-function rulesOf(plug: PlugConfig, site: SiteConfig): PlugRules {
-  return {
-    applianceKind: plug.applianceKind,
-    applianceWatts: plug.applianceWatts,
-    ratedCurrentA: plug.ratedCurrentA,
-    mainsVoltage: site.mainsVoltage,
-    highLimitC: plug.highLimitC,
-    failsafe: plug.failsafe,
-    failsafeDutyPercent: plug.failsafeDutyPercent,
-    failsafeDutyPeriodS: plug.failsafeDutyPeriodS,
-    staleAfterS: plug.staleAfterS,
-    outsideWindows: plug.outsideWindows,
-    frostLowC: plug.frostLowC,
-    frostHighC: plug.frostHighC,
-    minOnS: plug.minOnS,
-    minOffS: plug.minOffS,
-  };
-}
 
 export async function createController(input: Partial<ControllerOptions> & Pick<ControllerOptions, "databaseUrl" | "controllerSecret" | "webappSecret">): Promise<Controller> {
   const options: ControllerOptions = { ...defaults, logger: pino({ name: "controller" }), ...input };

@@ -86,7 +86,7 @@ function portIsFree(port: number): Promise<boolean> {
   });
 }
 
-function freePort(): Promise<number> {
+export function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
     const server = net.createServer();
     server.once("error", reject);

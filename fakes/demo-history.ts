@@ -9,9 +9,9 @@ import { createHash } from "node:crypto";
 import { and, count, eq, inArray, sql } from "drizzle-orm";
 import { connect, type Database } from "../db/client";
 import { plugs, readingMinutes, readings, switchEvents } from "../db/schema";
-import { loadConfig, type PlugConfig, type SiteConfig } from "../controller/config";
+import { loadConfig, rulesOf } from "../controller/config";
 import { compilePlugSchedule } from "../controller/plug-schedule";
-import { decide, type PlugRules } from "../lib/control";
+import { decide } from "../lib/control";
 import { createSiteModel, houseParams } from "./house-model";
 import { loadSiteLayout } from "./layout";
 
@@ -22,24 +22,6 @@ const RAW_DAYS = 7;
 export type DemoHistoryOptions = { db: Database; site: string; days: number; endMs: number; seed?: number };
 export type DemoHistorySummary = { skipped: boolean; switches: number; minutes: number; raw: number };
 
-function rulesOf(plug: PlugConfig, site: SiteConfig): PlugRules {
-  return {
-    applianceKind: plug.applianceKind,
-    applianceWatts: plug.applianceWatts,
-    ratedCurrentA: plug.ratedCurrentA,
-    mainsVoltage: site.mainsVoltage,
-    highLimitC: plug.highLimitC,
-    failsafe: plug.failsafe,
-    failsafeDutyPercent: plug.failsafeDutyPercent,
-    failsafeDutyPeriodS: plug.failsafeDutyPeriodS,
-    staleAfterS: plug.staleAfterS,
-    outsideWindows: plug.outsideWindows,
-    frostLowC: plug.frostLowC,
-    frostHighC: plug.frostHighC,
-    minOnS: plug.minOnS,
-    minOffS: plug.minOffS,
-  };
-}
 
 /** A stable command id for a historical switch, so a rerun cannot duplicate it. */
 function historyId(plugId: string, atMs: number) {

@@ -3,7 +3,6 @@
 import { spawn, type ChildProcess } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import { mkdtempSync, writeFileSync } from "node:fs";
-import net from "node:net";
 import os from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -11,6 +10,7 @@ import { asc, eq } from "drizzle-orm";
 import mqtt from "mqtt";
 import pino from "pino";
 import { getDb } from "@/db/client";
+import { freePort } from "@/db/local-server";
 import { switchEvents } from "@/db/schema";
 import { createController, type Controller } from "@/controller/controller";
 import { startPlugDevice, type PlugDevice } from "@/fakes/plug-device";
@@ -20,16 +20,6 @@ import { createControlSite, eventually, type ControlSite } from "../support/cont
 
 const mosquittoPath = findProgram(["mosquitto"]);
 
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = net.createServer();
-    server.once("error", reject);
-    server.listen({ port: 0, host: "127.0.0.1" }, () => {
-      const { port } = server.address() as net.AddressInfo;
-      server.close(() => resolve(port));
-    });
-  });
-}
 
 describe.skipIf(!mosquittoPath)("the controller on an external broker (mosquitto)", () => {
   let broker: ChildProcess;
