@@ -146,9 +146,9 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
   async function applyConfig(config: Config) {
     const sitesById = new Map(config.sites.map((s) => [s.id, s]));
     const next = new Map<string, PlugRuntime>();
-    const unseen = config.plugs.filter((p) => ![...plugsByDevice.values()].some((r) => r.config.id === p.id));
-    const lastSwitches = new Map((await loadLastSwitches(db, unseen.map((p) => p.id))).map((s) => [s.plugId, s]));
     const previous = new Map([...plugsByDevice.values()].map((r) => [r.config.id, r]));
+    const unseen = config.plugs.filter((p) => !previous.has(p.id));
+    const lastSwitches = new Map((await loadLastSwitches(db, unseen.map((p) => p.id))).map((s) => [s.plugId, s]));
     for (const plug of config.plugs) {
       const site = sitesById.get(plug.siteId);
       if (!site) continue;
