@@ -95,3 +95,21 @@ export async function waitForHttp(url: string, timeoutMs: number, alive: () => b
   }
   return false;
 }
+
+/** Waits until something accepts TCP connections on host:port. */
+export async function waitForPort(port: number, host: string, timeoutMs: number, alive: () => boolean) {
+  const deadline = Date.now() + timeoutMs;
+  while (Date.now() < deadline) {
+    if (!alive()) return false;
+    const open = await new Promise<boolean>((resolve) => {
+      const socket = net.connect({ port, host }, () => {
+        socket.destroy();
+        resolve(true);
+      });
+      socket.once("error", () => resolve(false));
+    });
+    if (open) return true;
+    await new Promise((resolve) => setTimeout(resolve, 200));
+  }
+  return false;
+}

@@ -7,7 +7,7 @@ import { DEMO_MEMBERS, DEMO_SITE, seedDemo } from "../../db/seed";
 import { writeDemoHistory } from "../../fakes/demo-history";
 import { buildIsCurrent, markBuilt, sourceHash } from "./build-stamp";
 import { DEVICE_SECRETS_FILE, issueDemoDeviceSecrets } from "./demo-devices";
-import { bin, persistentSecret, portIsFree, run, say, startService, stopService, waitForHttp, type Service } from "./common";
+import { bin, persistentSecret, portIsFree, run, say, startService, stopService, waitForHttp, waitForPort, type Service } from "./common";
 
 const port = Number(process.env.PORT ?? 3000);
 const mqttPort = Number(process.env.CLOCHE_MQTT_PORT ?? 1886);
@@ -89,7 +89,10 @@ async function main() {
   }
   const controller = startService("controller", bin("tsx"), ["controller/index.ts"], env);
   services.push(controller);
-  // The simulated devices connect to the controller's broker and retry until it is up.
+  // The simulated devices need the controller's broker to be listening when they start.
+  const brokerUrl = new URL(env.CLOCHE_MQTT_URL!);
+  const brokerUp = await waitForPort(Number(brokerUrl.port || 1883), brokerUrl.hostname, 60_000, () => controller.child.exitCode === null);
+  if (!brokerUp) throw new LocalDatabaseError(`the MQTT broker at ${env.CLOCHE_MQTT_URL} did not answer within 60 s.`);
   services.push(startService("fakes", bin("tsx"), ["fakes/index.ts"], { ...env, MQTT_URL: env.CLOCHE_MQTT_URL }));
   const web = startService("web", bin("next"), ["start", "--hostname", host, "--port", String(port)], env);
   services.push(web);
