@@ -2,7 +2,7 @@
 // limits, sensors, schedules and the overrides that are or will be active.
 import { and, desc, eq, gt, inArray, isNull, or, sql } from "drizzle-orm";
 import type { Database } from "@/db/client";
-import type { PlugRules } from "@/lib/control";
+import { sharedRules, type PlugRules } from "@/lib/control";
 import {
   houses,
   overrides,
@@ -172,7 +172,7 @@ export async function loadLastSwitches(db: Database, plugIds: string[]): Promise
 
 /** A plug's settings with its house's limit and its site's voltage, as the decision takes them. */
 export function rulesOf(plug: PlugConfig, site: SiteConfig): PlugRules {
-  return {
+  return sharedRules({
     applianceKind: plug.applianceKind,
     applianceWatts: plug.applianceWatts,
     ratedCurrentA: plug.ratedCurrentA,
@@ -187,5 +187,5 @@ export function rulesOf(plug: PlugConfig, site: SiteConfig): PlugRules {
     frostHighC: plug.frostHighC,
     minOnS: plug.minOnS,
     minOffS: plug.minOffS,
-  };
+  });
 }

@@ -5,6 +5,7 @@ import { and, eq, gte, lt, sql } from "drizzle-orm";
 import type { Logger } from "pino";
 import type { Database } from "@/db/client";
 import { plugs, readingMinutes, readings, sensors } from "@/db/schema";
+import { insertMany } from "@/db/insert-many";
 
 export type ReadingRow = typeof readings.$inferInsert;
 
@@ -35,7 +36,7 @@ export function createReadingsStore(options: ReadingsStoreOptions) {
   async function write() {
     while (queue.length > 0) {
       const batch = queue.slice(0, options.maxBatch);
-      await db.insert(readings).values(batch);
+      await insertMany(db, readings, batch);
       queue = queue.slice(batch.length);
     }
     for (const [key, s] of [...seen]) {

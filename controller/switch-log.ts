@@ -6,6 +6,7 @@ import { sql } from "drizzle-orm";
 import type { Logger } from "pino";
 import type { Database } from "@/db/client";
 import { switchEvents } from "@/db/schema";
+import { insertMany } from "@/db/insert-many";
 
 export type SwitchRow = typeof switchEvents.$inferInsert & { commandId: string };
 
@@ -47,15 +48,7 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
   async function write() {
     while (queue.size > 0) {
       const batch = [...queue.values()].slice(0, options.maxBatch);
-      await db
-        .insert(switchEvents)
-        .values(batch.map((b) => b.row))
-        .onDuplicateKeyUpdate({
-          set: {
-            ackAt: sql`COALESCE(VALUES(${switchEvents.ackAt}), ${switchEvents.ackAt})`,
-            latencyMs: sql`COALESCE(VALUES(${switchEvents.latencyMs}), ${switchEvents.latencyMs})`,
-          },
-        });
+      await insertMany(db, switchEvents, batch.map((b) => b.row), { fillIn: ["ackAt", "latencyMs"] });
       for (const { row, version: v } of batch) {
         written.add(row.commandId);
         if (queue.get(row.commandId)?.version === v) queue.delete(row.commandId);

@@ -6,9 +6,10 @@
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { createHash } from "node:crypto";
-import { and, count, eq, inArray, sql } from "drizzle-orm";
+import { and, count, eq, inArray } from "drizzle-orm";
 import { connect, type Database } from "../db/client";
 import { plugs, readingMinutes, readings, switchEvents } from "../db/schema";
+import { insertMany } from "../db/insert-many";
 import { loadConfig, rulesOf } from "../controller/config";
 import { compilePlugSchedule } from "../controller/plug-schedule";
 import { decide } from "../lib/control";
@@ -73,17 +74,17 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
     await db.transaction(async (tx) => {
       while (switches.length >= limit || (final && switches.length)) {
         const batch = switches.splice(0, 1000);
-        await tx.insert(switchEvents).values(batch).onDuplicateKeyUpdate({ set: { commandId: sql`${switchEvents.commandId}` } });
+        await insertMany(tx, switchEvents, batch, { keep: true });
         written.switches += batch.length;
       }
       while (minutes.length >= limit || (final && minutes.length)) {
         const batch = minutes.splice(0, 1000);
-        await tx.insert(readingMinutes).values(batch).onDuplicateKeyUpdate({ set: { samples: sql`${readingMinutes.samples}` } });
+        await insertMany(tx, readingMinutes, batch, { keep: true });
         written.minutes += batch.length;
       }
       while (raw.length >= limit || (final && raw.length)) {
         const batch = raw.splice(0, 1000);
-        await tx.insert(readings).values(batch);
+        await insertMany(tx, readings, batch);
         written.raw += batch.length;
       }
     });

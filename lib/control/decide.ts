@@ -86,18 +86,48 @@ export function decide(input: DecisionInput): Decision {
   }
 
   const edge = edgeReached(sense, tempC, lowC, highC);
+  const reasons = bandReasons(label, lowC, highC);
   if (edge !== "between") {
     const on = edgeWantsOn(sense, edge);
-    const reason =
-      edge === "low" ? `${label}at or below ${lowC} °C low edge` : `${label}at or above ${highC} °C high edge`;
-    return guarded(input, on, cause, reason, tempC, alerts);
+    return guarded(input, on, cause, edge === "low" ? reasons.low : reasons.high, tempC, alerts);
   }
   const current = input.current;
-  const between = `${label}between ${lowC} and ${highC} °C edges`;
   if (current === null) {
-    return result(false, cause, false, null, between + ", state unknown: off", tempC, alerts);
+    return result(false, cause, false, null, reasons.unknown, tempC, alerts);
   }
-  return result(current.on, cause, current.on, null, between + (current.on ? ": stays on" : ": stays off"), tempC, alerts);
+  return result(current.on, cause, current.on, null, current.on ? reasons.staysOn : reasons.staysOff, tempC, alerts);
+}
+
+type BandReasons = { low: string; high: string; unknown: string; staysOn: string; staysOff: string };
+
+// Formatting numbers into text was half the cost of a decision; a site has a handful
+// of bands, so each band's sentences are made once.
+const bandReasonCache = [new Map<number, Map<number, BandReasons>>(), new Map<number, Map<number, BandReasons>>()];
+const MAX_CACHED_LOW_EDGES = 1000;
+
+/** `label` is one of the two the decision uses: "" or "frost protection: ". */
+function bandReasons(label: string, lowC: number, highC: number): BandReasons {
+  const cache = bandReasonCache[label === "" ? 0 : 1]!;
+  let byHigh = cache.get(lowC);
+  if (byHigh === undefined) {
+    if (cache.size >= MAX_CACHED_LOW_EDGES) cache.clear();
+    byHigh = new Map();
+    cache.set(lowC, byHigh);
+  }
+  let reasons = byHigh.get(highC);
+  if (reasons === undefined) {
+    const between = `${label}between ${lowC} and ${highC} °C edges`;
+    reasons = {
+      low: `${label}at or below ${lowC} °C low edge`,
+      high: `${label}at or above ${highC} °C high edge`,
+      unknown: `${between}, state unknown: off`,
+      staysOn: `${between}: stays on`,
+      staysOff: `${between}: stays off`,
+    };
+    if (byHigh.size >= MAX_CACHED_LOW_EDGES) byHigh.clear();
+    byHigh.set(highC, reasons);
+  }
+  return reasons;
 }
 
 function failsafe(input: DecisionInput, tempC: null, alerts: number): Decision {

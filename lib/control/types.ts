@@ -5,13 +5,12 @@ export type Cause = "safety" | "override" | "schedule" | "default" | "failsafe";
 
 export type Alert = "sensor_quiet" | "overload" | "too_hot";
 
-/**
- * The time window in force for a plug, as schedule resolution hands it over (an
- * occurrence of lib/schedule fits). Only `window` is read here.
- */
+/** What the time window in force asks of a plug (an occurrence of lib/schedule fits); null outside windows. */
 export type ActiveWindow = {
-  window: { id: string; mode: "band" | "on" | "off"; lowC: number | null; highC: number | null };
+  window: WindowRule;
 } | null;
+
+export type WindowRule = { mode: "band" | "on" | "off"; lowC: number | null; highC: number | null };
 
 /** A plug's settings, its house's high limit and its site's mains voltage, flattened for the hot path. */
 export type PlugRules = {

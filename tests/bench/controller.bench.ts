@@ -1,17 +1,20 @@
 // `npm run bench:controller`: figures for the controller's hot paths (not a test).
-//   1. decision cost per tick for 10,000 plugs (schedule lookup + decide), median of 200 ticks
+//   1. decision cost per tick for 10,000 plugs (schedule lookup + decide), median of 200 ticks,
+//      beside a plain loop that works out each site's local time once per tick (the floor)
 //   2. switch-log writes sustained into MariaDB (its own private instance)
+//   (the broker figures follow)
 // Still to come: reading → command → echo latency and schedule-edge fan-out through
 // the broker, against the bare broker's own figures.
 import { randomUUID } from "node:crypto";
 import pino from "pino";
+import { DateTime } from "luxon";
 import { TEST_DATABASE_FOLDER, startLocalDatabase } from "../../db/local-server";
 import { migrateDatabase } from "../../db/migrate";
 import { connect } from "../../db/client";
 import { houses, plugs, sites } from "../../db/schema";
 import { createSwitchLog } from "../../controller/switch-log";
 import { compilePlugSchedule } from "../../controller/plug-schedule";
-import { decide, type PlugRules } from "../../lib/control";
+import { decide, sharedRules, type PlugRules } from "../../lib/control";
 import type { Schedule } from "../../lib/schedule";
 
 function median(values: number[]) {
@@ -49,7 +52,7 @@ function decisionBench() {
       minOnS: 180,
       minOffS: 180,
     };
-    return { rules, schedule: compilePlugSchedule([schedule], zones[i % zones.length]!), tempC: 2 + (i % 12), on: i % 2 === 0 };
+    return { rules: sharedRules(rules), schedule: compilePlugSchedule([schedule], zones[i % zones.length]!), tempC: 2 + (i % 12), on: i % 2 === 0 };
   });
   const compileStart = performance.now();
   for (const p of plugsInTick) p.schedule.activeAt(now);
@@ -70,7 +73,25 @@ function decisionBench() {
     }
     ticks.push(performance.now() - started);
   }
-  console.log(`decision tick, 10,000 plugs: median ${median(ticks).toFixed(2)} ms, max ${Math.max(...ticks).toFixed(2)} ms (target < 2 ms); compiling all schedules once: ${compileMs.toFixed(0)} ms`);
+  // The floor: one luxon DateTime per zone per tick, then a bare band test per plug.
+  const floor: number[] = [];
+  let on = 0;
+  for (let t = 0; t < 200; t++) {
+    const nowMs = now + t * 1000;
+    const started = performance.now();
+    const minuteOfDay = zones.map((zone) => {
+      const local = DateTime.fromMillis(nowMs, { zone });
+      return local.hour * 60 + local.minute;
+    });
+    for (let i = 0; i < plugsInTick.length; i++) {
+      const p = plugsInTick[i]!;
+      const m = minuteOfDay[i % zones.length]!;
+      if (m >= 360 && m < 1200 ? p.tempC <= 8 || (p.on && p.tempC < 10) : p.tempC <= 3) on++;
+    }
+    floor.push(performance.now() - started);
+  }
+  if (on < 0) console.log(on);
+  console.log(`decision tick, 10,000 plugs: median ${median(ticks).toFixed(2)} ms, max ${Math.max(...ticks).toFixed(2)} ms (target < 2 ms); compiling all schedules once: ${compileMs.toFixed(0)} ms; plain-loop floor: median ${median(floor).toFixed(2)} ms`);
 }
 
 async function switchLogBench() {

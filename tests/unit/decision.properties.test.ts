@@ -29,7 +29,6 @@ const rules: fc.Arbitrary<PlugRules> = fc.record({
 const activeWindow: fc.Arbitrary<ActiveWindow> = fc.option(
   fc.record({
     window: fc.record({
-      id: fc.constant("w"),
       mode: fc.constantFrom("band", "on", "off"),
       lowC: fc.option(tempC(-5, 30), { freq: 8 }),
       highC: fc.option(tempC(-5, 35), { freq: 8 }),
@@ -155,7 +154,7 @@ describe("decision properties", () => {
         const highC = lowC + widthTenths / 10;
         const t = lowC + (highC - lowC) * where;
         const window: ActiveWindow = inWindow
-          ? { window: { id: "w", mode: "band", lowC, highC } }
+          ? { window: { mode: "band", lowC, highC } }
           : null;
         return {
           ...i,

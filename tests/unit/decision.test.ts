@@ -34,7 +34,7 @@ const heater: PlugRules = {
 
 function windowOf(mode: "band" | "on" | "off", lowC: number | null = null, highC: number | null = null): ActiveWindow {
   return {
-    window: { id: "w1", mode, lowC, highC },
+    window: { mode, lowC, highC },
   };
 }
 const band = (lowC: number | null, highC: number | null) => windowOf("band", lowC, highC);
