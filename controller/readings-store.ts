@@ -32,11 +32,15 @@ export function createReadingsStore(options: ReadingsStoreOptions) {
   let dropped = 0;
   let closed = false;
   let rolledUpTo: number | undefined;
+  // The earliest reading written since the last roll-up: readings that waited out an
+  // outage land in minutes already summarised, and those minutes are summarised again.
+  let earliestWritten = Infinity;
 
   async function write() {
     while (queue.length > 0) {
       const batch = queue.slice(0, options.maxBatch);
       await insertMany(db, readings, batch);
+      for (const row of batch) earliestWritten = Math.min(earliestWritten, row.at.getTime());
       queue = queue.slice(batch.length);
     }
     for (const [key, s] of [...seen]) {
@@ -67,15 +71,30 @@ export function createReadingsStore(options: ReadingsStoreOptions) {
 
   /** Per-minute summaries of every complete minute not yet summarised; then old raw rows go. */
   async function rollUp() {
+    const late = earliestWritten;
+    try {
+      await summarise();
+    } catch (error) {
+      earliestWritten = Math.min(earliestWritten, late);
+      throw error;
+    }
+  }
+
+  async function summarise() {
     const now = options.now();
     const currentMinute = Math.floor(now / 60_000) * 60_000;
+    // Raw rows before this instant are being deleted: a minute before it cannot be summarised whole.
+    const oldestWhole = Math.ceil((now - options.rawRetentionMs) / 60_000) * 60_000;
     if (rolledUpTo === undefined) {
       const [row] = await db.select({ last: sql<Date | null>`MAX(${readingMinutes.minute})` }).from(readingMinutes);
-      const last = row?.last ? new Date(row.last).getTime() + 60_000 : currentMinute - options.rawRetentionMs;
-      rolledUpTo = Math.max(last, currentMinute - options.rawRetentionMs);
+      const last = row?.last ? new Date(row.last).getTime() + 60_000 : oldestWhole;
+      rolledUpTo = Math.max(last, oldestWhole);
     }
-    if (rolledUpTo >= currentMinute) return;
-    const from = new Date(rolledUpTo);
+    const late = Math.floor(earliestWritten / 60_000) * 60_000;
+    const fromMs = Math.max(Math.min(rolledUpTo, late), oldestWhole);
+    if (fromMs >= currentMinute) return;
+    earliestWritten = Infinity;
+    const from = new Date(fromMs);
     const to = new Date(currentMinute);
     const minute = sql`DATE_FORMAT(${readings.at}, '%Y-%m-%d %H:%i:00')`;
     await db.execute(sql`
