@@ -97,6 +97,9 @@ export type ControllerStats = {
   switchesLogged: number;
   acknowledged: number;
   evaluations: number;
+  /** Switches and acknowledgements waiting for MariaDB (non-zero while it is unreachable). */
+  switchesUnwritten: number;
+  readingsUnwritten: number;
 };
 
 export type Controller = {
@@ -117,7 +120,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
   const { logger, now } = options;
   const { db, pool } = connect(options.databaseUrl);
 
-  const stats: ControllerStats = { dropped: {}, commandsSent: 0, switchesLogged: 0, acknowledged: 0, evaluations: 0 };
+  const stats = { dropped: {} as Record<string, number>, commandsSent: 0, switchesLogged: 0, acknowledged: 0, evaluations: 0 };
   const drop = (reason: string, detail: Record<string, unknown>) => {
     stats.dropped[reason] = (stats.dropped[reason] ?? 0) + 1;
     logger.warn({ reason, ...detail }, "message dropped");
@@ -507,7 +510,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
   return {
     mqttUrl,
     broker,
-    stats: () => stats,
+    stats: () => ({ ...stats, switchesUnwritten: switchLog.waiting(), readingsUnwritten: store.waiting() }),
     plug(siteSlug, deviceId) {
       const r = plugsByDevice.get(`${siteSlug}/${deviceId}`);
       return r && { knownOn: r.knownOn, last: r.last, pending: r.pending !== null };

@@ -1,0 +1,68 @@
+// A TCP proxy to put in front of MariaDB, so a test can take the database away and
+// bring it back while the controller runs.
+import net from "node:net";
+
+export type TcpProxy = {
+  port: number;
+  /** Drops every open connection and refuses new ones (each is reset on arrival). */
+  cut: () => void;
+  /** Lets the server's requests through but never its replies, then drops the connections:
+   *  the server has done the work, the client cannot know it. */
+  swallowReplies: () => void;
+  restore: () => void;
+  close: () => Promise<void>;
+};
+
+export async function startTcpProxy(target: { host: string; port: number }): Promise<TcpProxy> {
+  let mode: "pass" | "cut" | "swallow" = "pass";
+  const open = new Set<net.Socket>();
+
+  const server = net.createServer((client) => {
+    if (mode === "cut") return void client.destroy();
+    const upstream = net.connect(target.port, target.host);
+    for (const s of [client, upstream]) {
+      open.add(s);
+      s.setNoDelay(true);
+      s.on("close", () => {
+        open.delete(s);
+        client.destroy();
+        upstream.destroy();
+      });
+      s.on("error", () => undefined);
+    }
+    client.on("data", (chunk) => {
+      if (mode !== "cut") upstream.write(chunk);
+    });
+    upstream.on("data", (chunk) => {
+      if (mode === "pass") return void client.write(chunk);
+      // Swallowed: give the server a moment to finish the statement, then hang up.
+      setTimeout(() => {
+        client.destroy();
+        upstream.destroy();
+      }, 50);
+    });
+  });
+  await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
+  const port = (server.address() as net.AddressInfo).port;
+
+  const dropAll = () => {
+    for (const s of open) s.destroy();
+  };
+  return {
+    port,
+    cut() {
+      mode = "cut";
+      dropAll();
+    },
+    swallowReplies() {
+      mode = "swallow";
+    },
+    restore() {
+      mode = "pass";
+    },
+    async close() {
+      dropAll();
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+    },
+  };
+}
