@@ -14,6 +14,9 @@ export function alertKey(kind: AlertKind, subject: AlertSubject) {
 export function createAlerts(options: { db: Database; logger: Logger; now: () => number }) {
   const { db, logger } = options;
   const open = new Map<string, number | "pending">();
+  // Moves whenever the open set changes other than by raise/clear (a load, a failed
+  // write), so callers that skip unchanged decisions know to look again.
+  let generation = 0;
 
   async function load() {
     const rows = await db
@@ -21,6 +24,7 @@ export function createAlerts(options: { db: Database; logger: Logger; now: () =>
       .from(alerts)
       .where(isNull(alerts.clearedAt));
     open.clear();
+    generation++;
     for (const row of rows) open.set(alertKey(row.kind, row), row.id);
   }
 
@@ -37,6 +41,7 @@ export function createAlerts(options: { db: Database; logger: Logger; now: () =>
       })
       .catch((error: unknown) => {
         open.delete(key);
+        generation++;
         logger.error({ err: error, key }, "could not store an alert; it will be raised again");
       });
   }
@@ -57,7 +62,7 @@ export function createAlerts(options: { db: Database; logger: Logger; now: () =>
       .catch((error: unknown) => logger.error({ err: error, key }, "could not clear an alert"));
   }
 
-  return { load, raise, clear, isOpen: (kind: AlertKind, subject: AlertSubject) => open.has(alertKey(kind, subject)) };
+  return { load, raise, clear, generation: () => generation, isOpen: (kind: AlertKind, subject: AlertSubject) => open.has(alertKey(kind, subject)) };
 }
 
 export type Alerts = ReturnType<typeof createAlerts>;

@@ -3,6 +3,7 @@
 import { and, desc, eq, gt, inArray, isNull, or, sql } from "drizzle-orm";
 import type { Database } from "@/db/client";
 import { sharedRules, type PlugRules } from "@/lib/control";
+import { groupBy } from "@/lib/group-by";
 import {
   houses,
   overrides,
@@ -112,6 +113,8 @@ export async function loadConfig(db: Database, now: Date, siteSlugs?: string[]):
       .orderBy(desc(overrides.startsAt)),
   ]);
 
+  const windowsOf = groupBy(windowRows, (w) => w.window.scheduleId);
+  const skipDaysOf = groupBy(skipRows, (k) => k.scheduleId);
   return {
     sites: siteRows,
     plugs: plugRows.map((r) => ({ ...r.plug, highLimitC: r.highLimitC })),
@@ -121,18 +124,16 @@ export async function loadConfig(db: Database, now: Date, siteSlugs?: string[]):
       plugId: s.plugId,
       validFrom: s.validFrom,
       validUntil: s.validUntil,
-      windows: windowRows
-        .filter((w) => w.window.scheduleId === s.id)
-        .map(({ window: w }) => ({
-          id: w.id,
-          recurrence: w.recurrence,
-          startsAt: w.startsAt,
-          durationMin: w.durationMin,
-          mode: w.mode,
-          lowC: w.lowC,
-          highC: w.highC,
-        })),
-      skipDays: skipRows.filter((k) => k.scheduleId === s.id).map((k) => k.day),
+      windows: (windowsOf.get(s.id) ?? []).map(({ window: w }) => ({
+        id: w.id,
+        recurrence: w.recurrence,
+        startsAt: w.startsAt,
+        durationMin: w.durationMin,
+        mode: w.mode,
+        lowC: w.lowC,
+        highC: w.highC,
+      })),
+      skipDays: (skipDaysOf.get(s.id) ?? []).map((k) => k.day),
     })),
     overrides: overrideRows,
   };

@@ -1,11 +1,11 @@
 // Readings and device presence, written in batches. A sensor reports every few
 // seconds, so rows are gathered and inserted many at a time; raw rows are kept for a
 // set time and summarised per minute for the long run.
-import { and, eq, gte, lt, sql } from "drizzle-orm";
+import { and, gte, lt, sql } from "drizzle-orm";
 import type { Logger } from "pino";
 import type { Database } from "@/db/client";
 import { plugs, readingMinutes, readings, sensors } from "@/db/schema";
-import { insertMany } from "@/db/insert-many";
+import { insertMany, updateMany } from "@/db/bulk";
 
 export type ReadingRow = typeof readings.$inferInsert;
 
@@ -43,11 +43,13 @@ export function createReadingsStore(options: ReadingsStoreOptions) {
       for (const row of batch) earliestWritten = Math.min(earliestWritten, row.at.getTime());
       queue = queue.slice(batch.length);
     }
-    for (const [key, s] of [...seen]) {
-      const table = s.table === "plugs" ? plugs : sensors;
-      await db.update(table).set({ online: s.online, lastSeenAt: s.lastSeenAt }).where(eq(table.id, s.id));
-      if (seen.get(key) === s) seen.delete(key);
+    // Presence: one UPDATE per table for everything seen since the last write.
+    const seenNow = [...seen];
+    for (const table of ["plugs", "sensors"] as const) {
+      const rows = seenNow.filter(([, s]) => s.table === table).map(([, s]) => ({ id: s.id, online: s.online, lastSeenAt: s.lastSeenAt }));
+      for (let i = 0; i < rows.length; i += 1000) await updateMany(db, table === "plugs" ? plugs : sensors, "id", rows.slice(i, i + 1000));
     }
+    for (const [key, s] of seenNow) if (seen.get(key) === s) seen.delete(key);
   }
 
   function flush(force = false): Promise<void> {

@@ -2,11 +2,10 @@
 // and completed when the plug acknowledges it; both are upserts keyed by the command
 // id, so a row is never written twice. While MariaDB is unreachable the rows wait
 // here and go out in order when it is back.
-import { sql } from "drizzle-orm";
 import type { Logger } from "pino";
 import type { Database } from "@/db/client";
 import { switchEvents } from "@/db/schema";
-import { insertMany } from "@/db/insert-many";
+import { insertMany, updateMany } from "@/db/bulk";
 
 export type SwitchRow = typeof switchEvents.$inferInsert & { commandId: string };
 
@@ -54,12 +53,12 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
         if (queue.get(row.commandId)?.version === v) queue.delete(row.commandId);
       }
     }
-    for (const [commandId, ack] of [...acks]) {
-      await db
-        .update(switchEvents)
-        .set({ ackAt: ack.ackAt, latencyMs: ack.latencyMs })
-        .where(sql`${switchEvents.commandId} = ${commandId}`);
-      acks.delete(commandId);
+    // Acknowledgements of rows already written: one UPDATE for all that are waiting.
+    const acked = [...acks];
+    for (let i = 0; i < acked.length; i += options.maxBatch) {
+      const batch = acked.slice(i, i + options.maxBatch);
+      await updateMany(db, switchEvents, "commandId", batch.map(([commandId, ack]) => ({ commandId, ...ack })));
+      for (const [commandId, ack] of batch) if (acks.get(commandId) === ack) acks.delete(commandId);
     }
     // Only recent command ids can still be acknowledged; keep the set small.
     if (written.size > 50_000) written.clear();
@@ -91,7 +90,9 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
   return {
     record(row) {
       put(row);
-      if (queue.size >= options.maxBatch) void flush();
+      // Not in the caller's turn: a tick that records a thousand switches should get
+      // its commands out before a thousand rows are formatted.
+      if (queue.size === options.maxBatch) setImmediate(() => void flush());
     },
     acknowledge(commandId, ackAt, latencyMs) {
       const queued = queue.get(commandId);

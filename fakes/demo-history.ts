@@ -9,7 +9,7 @@ import { createHash } from "node:crypto";
 import { and, count, eq, inArray } from "drizzle-orm";
 import { connect, type Database } from "../db/client";
 import { plugs, readingMinutes, readings, switchEvents } from "../db/schema";
-import { insertMany } from "../db/insert-many";
+import { insertMany } from "../db/bulk";
 import { loadConfig, rulesOf } from "../controller/config";
 import { compilePlugSchedule } from "../controller/plug-schedule";
 import { decide } from "../lib/control";

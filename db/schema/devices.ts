@@ -99,7 +99,7 @@ export const deviceCredentials = mysqlTable(
     deviceId: varchar("device_id", { length: 64 }).notNull(),
     /** MQTT user name, unique across the broker. */
     username: varchar("username", { length: 160 }).notNull().unique(),
-    /** scrypt hash in the form `scrypt$N$r$p$salt$hash` (base64url). */
+    /** Salted SHA-256 of a random 256-bit secret, `sha256$salt$hash` (base64url); a slow hash adds nothing to a secret that long. */
     secretHash: varchar("secret_hash", { length: 255 }).notNull(),
     createdAt: createdAt(),
     revokedAt: instant("revoked_at"),

@@ -2,9 +2,8 @@
 //   1. decision cost per tick for 10,000 plugs (schedule lookup + decide), median of 200 ticks,
 //      beside a plain loop that works out each site's local time once per tick (the floor)
 //   2. switch-log writes sustained into MariaDB (its own private instance)
-//   (the broker figures follow)
-// Still to come: reading → command → echo latency and schedule-edge fan-out through
-// the broker, against the bare broker's own figures.
+//   3. reading → command → echo latency, and a schedule edge's fan-out, through the broker
+//      with 1,000 simulated plugs, each against the broker's own figure (tests/bench/mqtt.ts)
 import { randomUUID } from "node:crypto";
 import pino from "pino";
 import { DateTime } from "luxon";
@@ -13,6 +12,7 @@ import { migrateDatabase } from "../../db/migrate";
 import { connect } from "../../db/client";
 import { houses, plugs, sites } from "../../db/schema";
 import { createSwitchLog } from "../../controller/switch-log";
+import { mqttBench } from "./mqtt";
 import { compilePlugSchedule } from "../../controller/plug-schedule";
 import { decide, sharedRules, type PlugRules } from "../../lib/control";
 import type { Schedule } from "../../lib/schedule";
@@ -94,37 +94,38 @@ function decisionBench() {
   console.log(`decision tick, 10,000 plugs: median ${median(ticks).toFixed(2)} ms, max ${Math.max(...ticks).toFixed(2)} ms (target < 2 ms); compiling all schedules once: ${compileMs.toFixed(0)} ms; plain-loop floor: median ${median(floor).toFixed(2)} ms`);
 }
 
-async function switchLogBench() {
-  const database = await startLocalDatabase({ folder: TEST_DATABASE_FOLDER, port: 0, database: "cloche_bench", fresh: true, log: () => {} });
-  try {
-    await migrateDatabase(database.url);
-    const { db, pool } = connect(database.url);
-    const siteId = randomUUID();
-    const houseId = randomUUID();
-    await db.insert(sites).values({ id: siteId, slug: "bench", name: "Bench", timeZone: "UTC", currency: "GBP" });
-    await db.insert(houses).values({ id: houseId, siteId, name: "Bench", kind: "other", lengthM: 1, widthM: 1, eaveHeightM: 1, ridgeHeightM: 1, glazing: "single_glass" });
-    const plugIds = Array.from({ length: 100 }, () => randomUUID());
-    await db.insert(plugs).values(
-      plugIds.map((id, i) => ({ id, siteId, houseId, deviceId: `p${i}`, name: `Plug ${i}`, applianceKind: "heater" as const, applianceWatts: 1000, ratedCurrentA: 13 })),
-    );
-    const log = createSwitchLog({ db, logger: pino({ level: "silent" }), flushMs: 50, maxBatch: 1000 });
-    const total = 100_000;
-    const started = performance.now();
-    const base = Date.now();
-    for (let i = 0; i < total; i++) {
-      const commandId = randomUUID();
-      log.record({ plugId: plugIds[i % 100]!, at: new Date(base + i), fromOn: i % 2 === 1, toOn: i % 2 === 0, cause: "schedule", commandId });
-      if (i % 1000 === 999) await log.flush();
-    }
-    await log.flush();
-    const seconds = (performance.now() - started) / 1000;
-    console.log(`switch log: ${total} events in ${seconds.toFixed(2)} s = ${Math.round(total / seconds)} events/s (target ≥ 10,000)`);
-    await log.close();
-    await pool.end();
-  } finally {
-    await database.stop();
+async function switchLogBench(databaseUrl: string) {
+  const { db, pool } = connect(databaseUrl);
+  const siteId = randomUUID();
+  const houseId = randomUUID();
+  await db.insert(sites).values({ id: siteId, slug: "bench", name: "Bench", timeZone: "UTC", currency: "GBP" });
+  await db.insert(houses).values({ id: houseId, siteId, name: "Bench", kind: "other", lengthM: 1, widthM: 1, eaveHeightM: 1, ridgeHeightM: 1, glazing: "single_glass" });
+  const plugIds = Array.from({ length: 100 }, () => randomUUID());
+  await db.insert(plugs).values(
+    plugIds.map((id, i) => ({ id, siteId, houseId, deviceId: `p${i}`, name: `Plug ${i}`, applianceKind: "heater" as const, applianceWatts: 1000, ratedCurrentA: 13 })),
+  );
+  const log = createSwitchLog({ db, logger: pino({ level: "silent" }), flushMs: 50, maxBatch: 1000 });
+  const total = 100_000;
+  const started = performance.now();
+  const base = Date.now();
+  for (let i = 0; i < total; i++) {
+    const commandId = randomUUID();
+    log.record({ plugId: plugIds[i % 100]!, at: new Date(base + i), fromOn: i % 2 === 1, toOn: i % 2 === 0, cause: "schedule", commandId });
+    if (i % 1000 === 999) await log.flush();
   }
+  await log.flush();
+  const seconds = (performance.now() - started) / 1000;
+  console.log(`switch log: ${total} events in ${seconds.toFixed(2)} s = ${Math.round(total / seconds)} events/s (target ≥ 10,000)`);
+  await log.close();
+  await pool.end();
 }
 
 decisionBench();
-await switchLogBench();
+const database = await startLocalDatabase({ folder: TEST_DATABASE_FOLDER, port: 0, database: "cloche_bench", fresh: true, log: () => {} });
+try {
+  await migrateDatabase(database.url);
+  await switchLogBench(database.url);
+  await mqttBench(database.url);
+} finally {
+  await database.stop();
+}

@@ -1,10 +1,8 @@
 // MariaDB goes away while the controller switches plugs: the plugs are still
 // switched, the switches wait in memory, and once MariaDB is back they are written
 // in order, each once, with their acknowledgements.
-import { randomBytes } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { asc, eq, gt } from "drizzle-orm";
-import pino from "pino";
 import type { MqttClient } from "mqtt";
 import { getDb } from "@/db/client";
 import { switchEvents } from "@/db/schema";
@@ -12,7 +10,7 @@ import { createController, type Controller } from "@/controller/controller";
 import { startPlugDevice, type PlugDevice } from "@/fakes/plug-device";
 import { deviceUsername } from "@/lib/mqtt/credentials";
 import { sensorTopic } from "@/lib/mqtt/topics";
-import { connectAs, createControlSite, eventually, type ControlSite } from "../support/control-site";
+import { connectAs, createControlSite, eventually, testControllerOptions, type ControlSite } from "../support/control-site";
 import { startTcpProxy, type TcpProxy } from "../support/tcp-proxy";
 
 let site: ControlSite;
@@ -50,19 +48,7 @@ beforeAll(async () => {
   const url = new URL(process.env.DATABASE_URL!);
   proxy = await startTcpProxy({ host: url.hostname, port: Number(url.port) });
   url.host = `127.0.0.1:${proxy.port}`;
-  controller = await createController({
-    databaseUrl: url.toString(),
-    controllerSecret: randomBytes(24).toString("base64url"),
-    webappSecret: randomBytes(24).toString("base64url"),
-    mqttPort: 0,
-    sites: [site.slug],
-    tickMs: 100,
-    ackTimeoutMs: 300,
-    startupGraceMs: 300,
-    flushMs: 30,
-    configReloadMs: 60_000,
-    logger: pino({ level: "silent" }),
-  });
+  controller = await createController(testControllerOptions(site, { databaseUrl: url.toString() }));
   heater = await startPlugDevice({
     url: controller.mqttUrl,
     site: site.slug,

@@ -1,6 +1,8 @@
 // A small site of its own for the controller tests: one house with a heater (on a
 // band that covers the whole day), its sensor, and a light without a schedule.
-import { randomUUID } from "node:crypto";
+import { randomBytes, randomUUID } from "node:crypto";
+import pino from "pino";
+import type { ControllerOptions } from "@/controller/controller";
 import mqtt, { type MqttClient } from "mqtt";
 import type { Database } from "@/db/client";
 import { issueDeviceCredential } from "@/db/device-credentials";
@@ -125,4 +127,22 @@ export async function eventually<T>(check: () => Promise<T | undefined | false> 
     await new Promise((resolve) => setTimeout(resolve, 50));
   }
   throw new Error(`timed out waiting for ${what}${last ? `: ${String(last)}` : ""}`);
+}
+
+/** Controller options for a test site: fast ticks and retries, silent, a free broker port. */
+export function testControllerOptions(site: ControlSite, extra: Partial<ControllerOptions> = {}) {
+  return {
+    databaseUrl: process.env.DATABASE_URL!,
+    controllerSecret: randomBytes(24).toString("base64url"),
+    webappSecret: randomBytes(24).toString("base64url"),
+    mqttPort: 0,
+    sites: [site.slug],
+    tickMs: 100,
+    ackTimeoutMs: 300,
+    startupGraceMs: 300,
+    flushMs: 30,
+    configReloadMs: 60_000,
+    logger: pino({ level: "silent" }),
+    ...extra,
+  } satisfies Partial<ControllerOptions>;
 }

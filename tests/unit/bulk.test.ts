@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { formatInsert } from "@/db/insert-many";
-import { readings, switchEvents, sites } from "@/db/schema";
+import { formatInsert, formatUpdate } from "@/db/bulk";
+import { plugs, readings, schedules, switchEvents } from "@/db/schema";
 
 describe("formatInsert", () => {
   it("writes every row with the columns any row names, in UTC, NULL where a row has none", () => {
@@ -27,9 +27,32 @@ describe("formatInsert", () => {
     expect(formatInsert(switchEvents, [row], { keep: true })).toMatch(/ ON DUPLICATE KEY UPDATE `plug_id` = `plug_id`$/);
   });
 
-  it("fills a missing column from its default function, and refuses a key that is not a column", () => {
-    const statement = formatInsert(sites, [{ id: "s1", slug: "a", name: "A", timeZone: "UTC", currency: "GBP" }, { id: "s2", slug: "b", name: "B", timeZone: "UTC", currency: "GBP", createdAt: new Date(0) }]);
-    expect(statement).toMatch(/\('s1', 'a', 'A', 'UTC', 'GBP', '\d{4}-\d\d-\d\d \d\d:\d\d:\d\d\.\d{3}'\)/);
+  it("fills in what Drizzle would (ids, timestamps) and refuses a key that is not a column", () => {
+    const statement = formatInsert(schedules, [{ plugId: "p1", name: "Winter" }, { plugId: "p2", name: "Spring", createdAt: new Date(0) }]);
+    expect(statement).toMatch(/^INSERT INTO `schedules` \(`plug_id`, `name`, `created_at`, `id`, `updated_at`\) VALUES /);
+    const stamp = "'\\d{4}-\\d\\d-\\d\\d \\d\\d:\\d\\d:\\d\\d\\.\\d{3}'";
+    const uuid = "'[0-9a-f-]{36}'";
+    expect(statement).toMatch(new RegExp(`\\('p1', 'Winter', ${stamp}, ${uuid}, ${stamp}\\), \\('p2', 'Spring', '1970-01-01 00:00:00.000', ${uuid}, ${stamp}\\)$`));
     expect(() => formatInsert(readings, [{ sensorId: "s", at: new Date(0), colour: "red" } as never])).toThrow(/no column "colour"/);
+  });
+});
+
+describe("formatUpdate", () => {
+  it("sets each row's own values in one statement, by key, leaving other rows alone", () => {
+    const statement = formatUpdate(plugs, "id", [
+      { id: "p1", online: true, lastSeenAt: new Date("2026-12-02T10:00:00.500Z") },
+      { id: "p2", online: false },
+    ]);
+    expect(statement).toBe(
+      "UPDATE `plugs` SET " +
+        "`online` = CASE `id` WHEN 'p1' THEN true WHEN 'p2' THEN false ELSE `online` END, " +
+        "`last_seen_at` = CASE `id` WHEN 'p1' THEN '2026-12-02 10:00:00.500' ELSE `last_seen_at` END " +
+        "WHERE `id` IN ('p1', 'p2')",
+    );
+  });
+
+  it("refuses a column the table does not have, and a row with nothing to set", () => {
+    expect(() => formatUpdate(plugs, "id", [{ id: "p1", colour: "red" } as never])).toThrow(/no column "colour"/);
+    expect(() => formatUpdate(plugs, "id", [{ id: "p1" }])).toThrow(/no column to set/);
   });
 });
