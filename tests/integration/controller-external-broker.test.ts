@@ -1,22 +1,20 @@
 // With MQTT_URL set, the controller uses that broker: here Debian's mosquitto, started
 // by this test on a port of its own (the test runner installs it when missing).
 import { spawn, type ChildProcess } from "node:child_process";
-import { randomBytes } from "node:crypto";
 import { mkdtempSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { asc, eq } from "drizzle-orm";
 import mqtt from "mqtt";
-import pino from "pino";
 import { getDb } from "@/db/client";
 import { freePort } from "@/db/local-server";
 import { switchEvents } from "@/db/schema";
 import { createController, type Controller } from "@/controller/controller";
 import { startPlugDevice, type PlugDevice } from "@/fakes/plug-device";
 import { findProgram } from "@/lib/stack/debian";
-import { sensorTopic } from "@/lib/mqtt/topics";
-import { createControlSite, eventually, type ControlSite } from "../support/control-site";
+import { plugTopic, sensorTopic } from "@/lib/mqtt/topics";
+import { createControlSite, eventually, testControllerOptions, type ControlSite } from "../support/control-site";
 
 const mosquittoPath = findProgram(["mosquitto"]);
 
@@ -46,18 +44,7 @@ describe.skipIf(!mosquittoPath)("the controller on an external broker (mosquitto
     }, 10_000, "mosquitto up");
 
     site = await createControlSite(getDb());
-    controller = await createController({
-      databaseUrl: process.env.DATABASE_URL!,
-      mqttUrl: url,
-      controllerSecret: randomBytes(24).toString("base64url"),
-      webappSecret: randomBytes(24).toString("base64url"),
-      sites: [site.slug],
-      tickMs: 100,
-      ackTimeoutMs: 300,
-      startupGraceMs: 300,
-      flushMs: 30,
-      logger: pino({ level: "silent" }),
-    });
+    controller = await createController(testControllerOptions(site, { mqttUrl: url }));
     heater = await startPlugDevice({ url, site: site.slug, device: "heater-1", password: "unused", ratedW: 2000, tickMs: 100, reportEveryMs: 0 });
   });
 
@@ -85,5 +72,49 @@ describe.skipIf(!mosquittoPath)("the controller on an external broker (mosquitto
     }, 5000, "acknowledged switch");
     expect(event).toMatchObject({ cause: "schedule", readingTempC: 8 });
     await sensor.endAsync();
+  });
+
+  it("reconciles with the plugs' retained reports when it restarts: nothing repeated, a change made meanwhile logged as resync", async () => {
+    const storedSwitches = async () => {
+      await controller.flush();
+      return getDb().select().from(switchEvents).where(eq(switchEvents.plugId, site.heaterId)).orderBy(asc(switchEvents.id));
+    };
+    const sensor = await mqtt.connectAsync(url, { protocolVersion: 4, reconnectPeriod: 0 });
+    const feeding = setInterval(() => {
+      void sensor.publishAsync(sensorTopic(site.slug, "air-1"), JSON.stringify({ temp_c: 8, at: new Date().toISOString() }), { qos: 1 }).catch(() => undefined);
+    }, 200);
+    try {
+      await eventually(() => heater.on, 5000, "heater on");
+      const before = await storedSwitches();
+
+      // 1. A restart with nothing changed: the retained report agrees with the log.
+      await controller.close();
+      controller = await createController(testControllerOptions(site, { mqttUrl: url }));
+      await new Promise((resolve) => setTimeout(resolve, 1500));
+      expect((await storedSwitches()).map((e) => e.commandId)).toEqual(before.map((e) => e.commandId));
+      expect(heater.on).toBe(true);
+
+      // 2. While the controller is away, someone else switches the plug off.
+      await controller.close();
+      const stranger = await mqtt.connectAsync(url, { protocolVersion: 4, reconnectPeriod: 0 });
+      await stranger.publishAsync(plugTopic(site.slug, "heater-1", "command"), JSON.stringify({ id: "by-hand-1", on: false, lease_s: 30 }), { qos: 1 });
+      await eventually(() => !heater.on, 5000, "heater off by hand");
+      await stranger.endAsync();
+      controller = await createController(testControllerOptions(site, { mqttUrl: url }));
+      await eventually(() => heater.on, 5000, "heater on again under the controller");
+
+      const after = await eventually(async () => {
+        const rows = await storedSwitches();
+        return rows.length === before.length + 2 && rows.every((r) => r.ackAt) ? rows : undefined;
+      }, 5000, "the resync and the switch back on");
+      const [resync, back] = after.slice(before.length);
+      expect(resync).toMatchObject({ fromOn: true, toOn: false, cause: "resync" });
+      expect(back).toMatchObject({ fromOn: false, toOn: true, cause: "schedule" });
+      expect(new Set(after.map((e) => e.commandId)).size).toBe(after.length);
+      for (let i = 1; i < after.length; i++) expect(after[i]!.fromOn).toBe(after[i - 1]!.toOn);
+    } finally {
+      clearInterval(feeding);
+      await sensor.endAsync();
+    }
   });
 });
