@@ -97,7 +97,10 @@ async function main() {
   const web = startService("web", bin("next"), ["start", "--hostname", host, "--port", String(port)], env);
   services.push(web);
   for (const service of services) {
-    void service.exited.then((code) => {
+    void service.exited.then(async (code) => {
+      // On Ctrl-C the whole process group gets SIGINT; a service can finish before our
+      // own handler has run. Give the signal a moment to land before calling it unexpected.
+      await new Promise((resolve) => setTimeout(resolve, 300));
       if (!stopping) {
         console.error(`[cloche] ${service.name} stopped unexpectedly (exit ${code}); stopping everything.`);
         void shutdown(1);
