@@ -64,7 +64,9 @@ export function compileSchedule(
   // Occurrences that opened up to a week before `from` may still be open. Every plug
   // compiled on a given day expands the same days, so that they share memoised expansions.
   const lookBack = MAX_DURATION_MIN * MINUTE_MS;
-  const table = offsetTable(timeZone, from - lookBack - 2 * DAY_MS, until + 2 * DAY_MS);
+  // The table reaches a week past `until` too: an occurrence opening near the end closes
+  // up to a week later, and its closing time needs that day's offset (a DST change).
+  const table = offsetTable(timeZone, from - lookBack - 2 * DAY_MS, until + lookBack + 2 * DAY_MS);
   const firstDay = startOfDay(instantToLocal(table, from - lookBack)) - DAY_MS;
   const lastDay = startOfDay(instantToLocal(table, until)) + DAY_MS;
 

@@ -179,3 +179,21 @@ describe("Australia/Sydney (southern hemisphere)", () => {
     expect(window && (window.closesAt.getTime() - window.opensAt.getTime()) / HOUR).toBe(7);
   });
 });
+
+// Found by the property test (seed 2025525952): a window lasting days that closes inside
+// the spring-forward gap closed an hour off when looked up with a short horizon.
+// Europe/London springs forward at 01:00 UTC on 2026-03-29 (IANA rules, EU last-Sunday-of-March).
+describe("a long window closing in the spring-forward gap", () => {
+  it("closes at the instant the clocks jumped, whatever the horizon", () => {
+    const schedule = {
+      id: "s",
+      validFrom: null,
+      validUntil: null,
+      skipDays: [],
+      windows: [{ id: "w0", mode: "on" as const, lowC: null, highC: null, recurrence: "FREQ=DAILY", startsAt: "00:00:00", durationMin: 4381 }],
+    };
+    const at = new Date("2026-03-26T00:00:00Z");
+    // 00:00 GMT on 26 March + 4381 min = 01:01 local on 29 March, which does not exist.
+    expect(activeWindow(schedule, "Europe/London", at)?.closesAt.toISOString()).toBe("2026-03-29T01:00:00.000Z");
+  });
+});
