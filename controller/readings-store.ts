@@ -47,7 +47,7 @@ export function createReadingsStore(options: ReadingsStoreOptions) {
     const seenNow = [...seen];
     for (const table of ["plugs", "sensors"] as const) {
       const rows = seenNow.filter(([, s]) => s.table === table).map(([, s]) => ({ id: s.id, online: s.online, lastSeenAt: s.lastSeenAt }));
-      for (let i = 0; i < rows.length; i += 1000) await updateMany(db, table === "plugs" ? plugs : sensors, "id", rows.slice(i, i + 1000));
+      await updateMany(db, table === "plugs" ? plugs : sensors, "id", rows);
     }
     for (const [key, s] of seenNow) if (seen.get(key) === s) seen.delete(key);
   }

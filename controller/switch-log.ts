@@ -55,11 +55,8 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
     }
     // Acknowledgements of rows already written: one UPDATE for all that are waiting.
     const acked = [...acks];
-    for (let i = 0; i < acked.length; i += options.maxBatch) {
-      const batch = acked.slice(i, i + options.maxBatch);
-      await updateMany(db, switchEvents, "commandId", batch.map(([commandId, ack]) => ({ commandId, ...ack })));
-      for (const [commandId, ack] of batch) if (acks.get(commandId) === ack) acks.delete(commandId);
-    }
+    await updateMany(db, switchEvents, "commandId", acked.map(([commandId, ack]) => ({ commandId, ...ack })));
+    for (const [commandId, ack] of acked) if (acks.get(commandId) === ack) acks.delete(commandId);
     // Only recent command ids can still be acknowledged; keep the set small.
     if (written.size > 50_000) written.clear();
   }

@@ -1,14 +1,32 @@
 // Many rows in one statement, for the write-heavy paths (switch log, readings, device
 // presence, demo history). Drizzle's query builder takes about 70 ms to build a
 // 1,000-row insert on this machine, longer than MariaDB takes to run it, and that time
-// blocks the controller's event loop; a thousand one-row updates cost more still. Here the statement is formatted by mysql2 in a few milliseconds; names,
-// value mapping and defaults still come from the Drizzle table, and it runs through
-// Drizzle, so transactions work as usual.
+// blocks the controller's event loop; a thousand one-row updates cost more still.
+// Here mysql2 formats the statement in a few milliseconds; names, value mapping and
+// defaults still come from the Drizzle table, and it runs through Drizzle, so
+// transactions work as usual.
 import { getTableColumns, getTableName, sql, type Column } from "drizzle-orm";
 import type { MySqlTable } from "drizzle-orm/mysql-core";
 import mysql from "mysql2";
 
 type Executor = { execute: (query: ReturnType<typeof sql.raw>) => Promise<unknown> };
+
+/** Rows per UPDATE statement; updateMany splits longer lists. */
+const UPDATE_CHUNK = 1000;
+
+function columnsOf(table: MySqlTable) {
+  const all = getTableColumns(table) as Record<string, Column>;
+  const column = (key: string) => {
+    const found = all[key];
+    if (!found) throw new Error(`${getTableName(table)} has no column "${key}"`);
+    return found;
+  };
+  return { all, column };
+}
+
+function driverValue(column: Column, value: unknown): mysql.SqlValue {
+  return value === null || value === undefined ? null : (column.mapToDriverValue(value) as mysql.SqlValue);
+}
 
 export type OnDuplicate<Row> =
   /** Leave the stored row as it is (a second write of the same key is dropped). */
@@ -27,8 +45,8 @@ export async function insertMany<TTable extends MySqlTable>(
 }
 
 /**
- * Sets columns of many rows, each found by `key` (its primary key), in one UPDATE:
- * `SET c = CASE key WHEN … THEN … ELSE c END … WHERE key IN (…)`.
+ * Sets columns of many rows, each found by `key` (a unique column), one UPDATE per
+ * thousand rows: `SET c = CASE key WHEN … THEN … ELSE c END … WHERE key IN (…)`.
  */
 export async function updateMany<TTable extends MySqlTable, K extends keyof TTable["$inferSelect"] & string>(
   executor: Executor,
@@ -36,8 +54,10 @@ export async function updateMany<TTable extends MySqlTable, K extends keyof TTab
   key: K,
   rows: readonly (Pick<TTable["$inferSelect"], K> & Partial<TTable["$inferSelect"]>)[],
 ): Promise<void> {
-  if (rows.length === 0) return;
-  await run(executor, formatUpdate(table, key, rows), rows.length);
+  for (let i = 0; i < rows.length; i += UPDATE_CHUNK) {
+    const chunk = rows.slice(i, i + UPDATE_CHUNK);
+    await run(executor, formatUpdate(table, key, chunk), chunk.length);
+  }
 }
 
 export function formatUpdate<TTable extends MySqlTable, K extends keyof TTable["$inferSelect"] & string>(
@@ -45,14 +65,8 @@ export function formatUpdate<TTable extends MySqlTable, K extends keyof TTable["
   key: K,
   rows: readonly (Pick<TTable["$inferSelect"], K> & Partial<TTable["$inferSelect"]>)[],
 ): string {
-  const all = getTableColumns(table) as Record<string, Column>;
-  const column = (name: string) => {
-    const found = all[name];
-    if (!found) throw new Error(`${getTableName(table)} has no column "${name}"`);
-    return found;
-  };
+  const { column } = columnsOf(table);
   const keyColumn = column(key);
-  const driverValue = (c: Column, value: unknown) => (value === null || value === undefined ? null : (c.mapToDriverValue(value) as mysql.SqlValue));
   const keys = rows.map((row) => driverValue(keyColumn, (row as Record<string, unknown>)[key]));
   const changed = new Set<string>();
   for (const row of rows) for (const name of Object.keys(row)) if (name !== key) changed.add(name);
@@ -86,24 +100,19 @@ export function formatInsert<TTable extends MySqlTable>(
   rows: readonly TTable["$inferInsert"][],
   onDuplicate?: OnDuplicate<TTable["$inferInsert"]>,
 ): string {
-  const all = getTableColumns(table) as Record<string, Column>;
+  const { all, column } = columnsOf(table);
   // The columns any row names, and those Drizzle would fill in itself (ids, timestamps).
   const keys = new Set<string>();
   for (const row of rows) for (const key of Object.keys(row)) keys.add(key);
-  for (const [key, column] of Object.entries(all)) if (column.defaultFn || column.onUpdateFn) keys.add(key);
-  const used = [...keys].map((key) => {
-    const column = all[key];
-    if (!column) throw new Error(`${getTableName(table)} has no column "${key}"`);
-    return [key, column] as const;
-  });
+  for (const [key, c] of Object.entries(all)) if (c.defaultFn || c.onUpdateFn) keys.add(key);
+  const used = [...keys].map((key) => [key, column(key)] as const);
   const values: mysql.SqlValue[][] = rows.map((row) =>
-    used.map(([key, column]) => {
+    used.map(([key, c]) => {
       const value = (row as Record<string, unknown>)[key];
-      if (value !== undefined && value !== null) return column.mapToDriverValue(value) as mysql.SqlValue;
-      if (value === null) return null;
-      const filled = column.defaultFn ?? column.onUpdateFn;
-      if (filled) return column.mapToDriverValue(filled()) as mysql.SqlValue;
-      if (column.hasDefault && !column.primary) throw new Error(`insertMany cannot write the SQL default of ${column.name}; give it a value`);
+      if (value !== undefined) return driverValue(c, value);
+      const filled = c.defaultFn ?? c.onUpdateFn;
+      if (filled) return driverValue(c, filled());
+      if (c.hasDefault && !c.primary) throw new Error(`insertMany cannot write the SQL default of ${c.name}; give it a value`);
       return null;
     }),
   );
@@ -118,8 +127,7 @@ export function formatInsert<TTable extends MySqlTable>(
     statement += mysql.format(" ON DUPLICATE KEY UPDATE ?? = ??", [first, first]);
   } else if (onDuplicate) {
     const sets = onDuplicate.fillIn.map((key) => {
-      const name = all[key]?.name;
-      if (!name) throw new Error(`${getTableName(table)} has no column "${key}"`);
+      const name = column(key).name;
       return mysql.format("?? = COALESCE(VALUES(??), ??)", [name, name, name]);
     });
     statement += ` ON DUPLICATE KEY UPDATE ${sets.join(", ")}`;
