@@ -4,6 +4,7 @@
 import net from "node:net";
 import { Aedes, type Client } from "aedes";
 import type { Logger } from "pino";
+import type { BrokerLink, LinkOptions } from "./link";
 import {
   CONTROLLER_USERNAME,
   WEBAPP_USERNAME,
@@ -28,8 +29,13 @@ export type BrokerOptions = {
 export type Broker = {
   port: number;
   counts: { refusedLogins: number; refusedPublishes: number; refusedSubscriptions: number };
+  /** The controller's own way in: no socket, no encoding, no acknowledgements. */
+  link: (options: LinkOptions) => Promise<BrokerLink>;
   close: () => Promise<void>;
 };
+
+type RetainedPacket = { topic: string; payload: Buffer | string };
+type RetainedStore = { createRetainedStreamCombi: (patterns: string[]) => AsyncIterable<RetainedPacket> };
 
 const principals = new WeakMap<Client, Principal>();
 
@@ -97,10 +103,43 @@ export async function createBroker(options: BrokerOptions): Promise<Broker> {
   const port = (server.address() as net.AddressInfo).port;
   logger.info({ host: options.host, port }, "embedded MQTT broker listening");
 
+  async function link(o: LinkOptions): Promise<BrokerLink> {
+    const toBuffer = (payload: Buffer | string) => (typeof payload === "string" ? Buffer.from(payload) : payload);
+    let replaying: Set<string> | null = new Set();
+    const deliver = (packet: RetainedPacket, done: () => void) => {
+      replaying?.add(packet.topic);
+      o.onMessage(packet.topic, toBuffer(packet.payload));
+      done();
+    };
+    await Promise.all(o.subscriptions.map((topic) => new Promise<void>((resolve) => aedes.subscribe(topic, deliver, resolve))));
+    // What a subscription over the network would hear first: the retained messages,
+    // except where a newer one has already arrived live.
+    const retained = (aedes as unknown as { persistence: RetainedStore }).persistence;
+    for await (const packet of retained.createRetainedStreamCombi(o.subscriptions)) {
+      if (!replaying.has(packet.topic)) o.onMessage(packet.topic, toBuffer(packet.payload));
+    }
+    replaying = null;
+    let closed = false;
+    return {
+      publish(topic, payload, onError) {
+        if (closed) return onError(new Error("link closed"));
+        aedes.publish({ cmd: "publish", topic, payload: Buffer.from(payload), qos: 1, retain: false, dup: false }, (error) => {
+          if (error) onError(error);
+        });
+      },
+      async close() {
+        if (closed) return;
+        closed = true;
+        await Promise.all(o.subscriptions.map((topic) => new Promise<void>((resolve) => aedes.unsubscribe(topic, deliver, resolve))));
+      },
+    };
+  }
+
   let closing: Promise<void> | undefined;
   return {
     port,
     counts,
+    link,
     close: () =>
       (closing ??= (async () => {
         await new Promise<void>((resolve) => aedes.close(() => resolve()));

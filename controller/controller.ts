@@ -3,7 +3,6 @@
 // sends commands with a lease, proves each switch by its echoed command id, and
 // writes every switch to MariaDB.
 import { randomUUID } from "node:crypto";
-import mqtt, { type MqttClient } from "mqtt";
 import pino, { type Logger } from "pino";
 import { connect, type Database } from "@/db/client";
 import { decide, type Decision, type PlugRules } from "@/lib/control";
@@ -22,6 +21,7 @@ import {
 import { compilePlugSchedule, type PlugSchedule } from "./plug-schedule";
 import { createAlerts, type Alerts } from "./alerts";
 import { createBroker, type Broker } from "./broker";
+import { connectNetworkLink, type BrokerLink } from "./link";
 import { loadConfig, loadLastSwitches, loadLatestReadings, rulesOf, type Config, type OverrideConfig, type PlugConfig, type SiteConfig } from "./config";
 import { lookupDeviceSecret } from "@/db/device-credentials";
 import { createReadingsStore, type ReadingsStore } from "./readings-store";
@@ -248,41 +248,6 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
     mqttUrl = `mqtt://${options.mqttHost}:${broker.port}`;
   }
 
-  const client: MqttClient = mqtt.connect(mqttUrl, {
-    protocolVersion: 4,
-    clientId: `cloche-controller-${randomUUID().slice(0, 8)}`,
-    username: CONTROLLER_USERNAME,
-    password: options.controllerSecret,
-    clean: true,
-    reconnectPeriod: 1000,
-    connectTimeout: 10_000,
-  });
-  client.on("connect", () => {
-    (client.stream as unknown as { setNoDelay?: (on: boolean) => void }).setNoDelay?.(true);
-    logger.info({ url: mqttUrl }, "connected to the MQTT broker");
-    client.subscribe(
-      [
-        `${TOPIC_ROOT}/+/plug/+/report`,
-        `${TOPIC_ROOT}/+/plug/+/presence`,
-        `${TOPIC_ROOT}/+/sensor/+/reading`,
-        `${TOPIC_ROOT}/+/controller/wake`,
-      ],
-      { qos: 1 },
-      (error) => {
-        if (error) logger.error({ err: error }, "subscription failed");
-      },
-    );
-  });
-  client.on("reconnect", () => logger.warn("reconnecting to the MQTT broker"));
-  client.on("error", (error) => logger.error({ err: error }, "MQTT error"));
-  client.on("message", (topic, payload) => {
-    try {
-      onMessage(topic, payload);
-    } catch (error) {
-      drop("handler_error", { topic, err: error });
-    }
-  });
-
   // During a tick, commands wait here and go out a few dozen at a time between turns
   // of the event loop, so the broker (often in this process) starts delivering the
   // first while the rest are written: an edge that switches every plug then takes
@@ -293,9 +258,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
   const OUTBOX_CHUNK = 50;
 
   function send(topic: string, payload: string, deviceId: string) {
-    client.publish(topic, payload, { qos: 1 }, (error) => {
-      if (error) logger.warn({ err: error, plug: deviceId }, "command publish failed; will retry");
-    });
+    link.publish(topic, payload, (error) => logger.warn({ err: error, plug: deviceId }, "command publish failed; will retry"));
   }
 
   function drainOutbox() {
@@ -550,6 +513,27 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
     edgeTimer.unref?.();
   }
 
+  const linkOptions = {
+    subscriptions: [
+      `${TOPIC_ROOT}/+/plug/+/report`,
+      `${TOPIC_ROOT}/+/plug/+/presence`,
+      `${TOPIC_ROOT}/+/sensor/+/reading`,
+      `${TOPIC_ROOT}/+/controller/wake`,
+    ],
+    onMessage(topic: string, payload: Buffer) {
+      try {
+        onMessage(topic, payload);
+      } catch (error) {
+        drop("handler_error", { topic, err: error });
+      }
+    },
+    logger: logger.child({ part: "link" }),
+  };
+  // Its own broker it reaches in-process; an external one over the network.
+  const link: BrokerLink = broker
+    ? await broker.link(linkOptions)
+    : connectNetworkLink({ ...linkOptions, url: mqttUrl, username: CONTROLLER_USERNAME, password: options.controllerSecret });
+
   startedMs = now();
   const tickTimer = setInterval(tick, options.tickMs);
   const reloadInterval = setInterval(scheduleReload, options.configReloadMs);
@@ -580,7 +564,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
         clearInterval(reloadInterval);
         clearTimeout(edgeTimer);
         clearTimeout(reloadTimer);
-        await client.endAsync().catch(() => undefined);
+        await link.close();
         await switchLog.close();
         await store.close();
         await broker?.close();
