@@ -9,11 +9,13 @@ import { setNoDelay } from "../../fakes/connect";
 export type FleetRequest =
   | { kind: "plugs"; url: string; site: string; plugs: { device: string; password: string }[] }
   | { kind: "subscribers"; url: string; topic: string; count: number }
+  | { kind: "cpu" }
   | { kind: "stop" };
 
 export type FleetReply =
   | { kind: "ready"; what: "plugs" | "subscribers" }
   | { kind: "fanned-out"; round: number; firstAt: number; lastAt: number }
+  | { kind: "cpu"; micros: number }
   | { kind: "error"; message: string };
 
 /** Epoch ms with sub-millisecond precision, comparable across the two processes. */
@@ -66,6 +68,10 @@ process.on("message", (request: FleetRequest) => {
   const run = async () => {
     if (request.kind === "plugs") await startPlugs(request);
     else if (request.kind === "subscribers") await startSubscribers(request);
+    else if (request.kind === "cpu") {
+      const used = process.cpuUsage();
+      send({ kind: "cpu", micros: used.user + used.system });
+    }
     else {
       await Promise.all([...plugs.map((p) => p.close()), ...subscribers.map((s) => s.endAsync())]);
       process.exit(0);

@@ -3,8 +3,10 @@
 //     broker's QoS 1 round trip (command → echoed report from a plug the controller
 //     does not run, through the same broker, interleaved with the first);
 //   - a schedule edge that switches all 1,000 plugs, against a bare aedes broker
-//     fanning one QoS 1 message out to 1,000 subscribers.
+//     fanning one QoS 1 message out to 1,000 subscribers; beside both, the CPU time
+//     each takes in the two processes, which bounds how fast it can be on this machine.
 import net from "node:net";
+import os from "node:os";
 import { fork } from "node:child_process";
 import { randomBytes, randomUUID } from "node:crypto";
 import path from "node:path";
@@ -36,6 +38,7 @@ function percentile(values: number[], p: number) {
 }
 const ms = (v: number) => `${v.toFixed(2)} ms`;
 
+type BurstCpu = { broker: number; devices: number; total: number };
 type BenchSite = { siteId: string; plugIds: string[]; scheduleIds: string[]; secrets: Map<string, string> };
 
 async function createBenchSites(db: ReturnType<typeof connect>["db"]): Promise<BenchSite> {
@@ -187,6 +190,26 @@ export async function mqttBench(databaseUrl: string) {
         )),
       );
     }
+    // CPU time (µs) spent so far by this process (broker and controller) and by the devices' process.
+    const cpuSpent = async () => {
+      const { micros } = await fleet.request({ kind: "cpu" }, (r): r is Extract<FleetReply, { kind: "cpu" }> => r.kind === "cpu");
+      const own = process.cpuUsage();
+      return { broker: own.user + own.system, devices: micros };
+    };
+    const sleepUntil = (atMs: number) => new Promise((resolve) => setTimeout(resolve, Math.max(0, atMs - Date.now())));
+    /** CPU ms a burst costs in each process: a second holding it less the quiet second before. */
+    const burstCpu = async (startMs: number, burst: () => Promise<void>): Promise<BurstCpu> => {
+      await sleepUntil(startMs - 1100);
+      const c0 = await cpuSpent();
+      await sleepUntil(startMs - 100);
+      const c1 = await cpuSpent();
+      await burst();
+      await sleepUntil(startMs + 900);
+      const c2 = await cpuSpent();
+      const spent = (k: "broker" | "devices") => (c2[k] - c1[k] - (c1[k] - c0[k])) / 1000;
+      return { broker: spent("broker"), devices: spent("devices"), total: spent("broker") + spent("devices") };
+    };
+
     const observer = await connectClient(controller.mqttUrl, CONTROLLER_USERNAME, controllerSecret);
     const waitForReport = reportWaiter(observer);
     await observer.subscribeAsync(`cloche/v1/${SITE}/plug/+/report`, { qos: 1 });
@@ -241,13 +264,19 @@ export async function mqttBench(databaseUrl: string) {
     background = undefined;
     await observer.unsubscribeAsync(`cloche/v1/${SITE}/plug/+/report`);
     const fanouts: number[] = [];
+    const fanoutCpu: BurstCpu[] = [];
     const publisher = await connectClient(bareUrl);
     for (let round = 0; round < FANOUT_ROUNDS; round++) {
       const done = fleet.expect((r): r is Extract<FleetReply, { kind: "fanned-out" }> => r.kind === "fanned-out" && r.round === round);
-      const t0 = clock();
-      await publisher.publishAsync("bench/fanout", JSON.stringify({ round }), { qos: 1 });
-      fanouts.push((await done).lastAt - t0);
-      await new Promise((resolve) => setTimeout(resolve, 200));
+      const startMs = Date.now() + 1200;
+      fanoutCpu.push(
+        await burstCpu(startMs, async () => {
+          await sleepUntil(startMs);
+          const t0 = clock();
+          await publisher.publishAsync("bench/fanout", JSON.stringify({ round }), { qos: 1 });
+          fanouts.push((await done).lastAt - t0);
+        }),
+      );
     }
     await publisher.endAsync();
 
@@ -270,8 +299,10 @@ export async function mqttBench(databaseUrl: string) {
     ];
     const edgeFigures: string[] = [];
     const edgeTimes: number[] = [];
+    const edgeCpu: BurstCpu[] = [];
     for (const edge of edges) {
-      await new Promise((resolve) => setTimeout(resolve, Math.max(0, edge.atMs - Date.now() + 3000)));
+      edgeCpu.push(await burstCpu(edge.atMs, async () => void (await sleepUntil(edge.atMs))));
+      await sleepUntil(edge.atMs + 3000);
       const rows = await (async () => {
         for (;;) {
           await controller.flush();
@@ -309,10 +340,21 @@ export async function mqttBench(databaseUrl: string) {
       await new Promise((resolve) => setTimeout(resolve, 500));
     }
     const fanout = percentile(fanouts, 50);
+    const edgeCpuMs = Math.max(...edgeCpu.map((c) => c.total));
+    const cpuFigure = (c: { broker: number; devices: number }) => `${c.broker.toFixed(0)} + ${c.devices.toFixed(0)} ms`;
+    const medianFanoutCpu = [...fanoutCpu].sort((a, b) => a.total - b.total)[Math.floor(fanoutCpu.length / 2)]!;
     console.log(
       `schedule edge, ${PLUGS} plugs: ${edgeFigures.join("; ")}; bare broker fan-out of one QoS 1 message to ${PLUGS} subscribers, same run: ` +
         `median ${ms(fanout)} (of ${FANOUT_ROUNDS}, max ${ms(Math.max(...fanouts))}); worst edge ratio ${(Math.max(...edgeTimes) / fanout).toFixed(2)}× (target ≤ 1.5×); ` +
         `the same ${PLUGS} commands from a bare client, echoed: median ${ms(percentile(bursts, 50))} (of ${bursts.length})`,
+    );
+    // Both processes share this machine's cores: an edge cannot finish sooner than its
+    // CPU time spread over all of them.
+    const cores = os.availableParallelism();
+    console.log(
+      `CPU time, broker's process + devices' process: fan-out (median) ${cpuFigure(medianFanoutCpu)}, ` +
+        `edges ${edgeCpu.map(cpuFigure).join(" and ")}; spread over ${cores} cores an edge takes at least ${(edgeCpuMs / cores).toFixed(0)} ms ` +
+        `= ${(edgeCpuMs / cores / fanout).toFixed(2)}× the fan-out`,
     );
     await observer.endAsync();
   } finally {
