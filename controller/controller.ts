@@ -81,6 +81,8 @@ type PlugRuntime = {
   site: SiteConfig;
   rules: PlugRules;
   schedule: PlugSchedule;
+  /** What the schedule was compiled from. */
+  scheduleKey: string;
   overrides: (OverrideConfig & { endsMs: number })[];
   topic: string;
   /** The state the switch log says the plug is in (null: never logged). */
@@ -162,7 +164,12 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
     for (const plug of config.plugs) {
       const site = sitesById.get(plug.siteId);
       if (!site) continue;
-      const schedule = compilePlugSchedule(schedulesOf.get(plug.id) ?? [], site.timeZone);
+      const before = previous.get(plug.id);
+      // A reload comes every few seconds and most schedules have not changed: keep
+      // those compiled, so the edge after a reload is not held up compiling them all.
+      const plugSchedules = schedulesOf.get(plug.id) ?? [];
+      const scheduleKey = `${site.timeZone} ${JSON.stringify(plugSchedules)}`;
+      const schedule = before?.scheduleKey === scheduleKey ? before.schedule : compilePlugSchedule(plugSchedules, site.timeZone);
       const overrides = (overridesOf.get(plug.id) ?? [])
         .map((o) => ({
           ...o,
@@ -172,13 +179,13 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
               ? (schedule.nextChangeAfter(o.startsAt.getTime()) ?? Number.POSITIVE_INFINITY)
               : Number.POSITIVE_INFINITY,
         }));
-      const before = previous.get(plug.id);
       const last = lastSwitches.get(plug.id);
       next.set(`${site.slug}/${plug.deviceId}`, {
         config: plug,
         site,
         rules: rulesOf(plug, site),
         schedule,
+        scheduleKey,
         overrides,
         topic: plugTopic(site.slug, plug.deviceId, "command"),
         knownOn: before ? before.knownOn : (last?.on ?? null),
