@@ -1,7 +1,8 @@
 // The bench's devices, in a process of their own as real devices would be: 1,000
 // simulated plugs on the controller's broker, one more plug on a site the controller
 // does not run (the broker's own round trip), and 1,000 bare subscribers on a bare
-// broker (its fan-out). Driven by the bench over IPC.
+// broker (its fan-out; asked to, each answers with a retained QoS 1 message of its own,
+// the least traffic a schedule edge makes). Driven by the bench over IPC.
 import mqtt, { type MqttClient } from "mqtt";
 import { startPlugDevice, type PlugDevice } from "../../fakes/plug-device";
 import { setNoDelay } from "../../fakes/connect";
@@ -48,7 +49,8 @@ async function startSubscribers(request: Extract<FleetRequest, { kind: "subscrib
         setNoDelay(client);
         client.on("message", (_topic, payload) => {
           const at = clock();
-          const round = (JSON.parse(payload.toString()) as { round: number }).round;
+          const { round, answer } = JSON.parse(payload.toString()) as { round: number; answer?: boolean };
+          if (answer) client.publish(`${request.topic}/answer/${i + k}`, payload, { qos: 1, retain: true });
           const r = received.get(round) ?? { n: 0, firstAt: at, lastAt: at };
           r.n++;
           r.lastAt = at;
