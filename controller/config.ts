@@ -161,13 +161,14 @@ export async function loadLastSwitches(db: Database, plugIds: string[]): Promise
   const latest = db
     .select({ plugId: switchEvents.plugId, at: sql<Date>`MAX(${switchEvents.at})`.as("latest_at") })
     .from(switchEvents)
-    .where(inArray(switchEvents.plugId, plugIds))
+    .where(and(inArray(switchEvents.plugId, plugIds), isNull(switchEvents.withdrawnAt)))
     .groupBy(switchEvents.plugId)
     .as("latest");
   const rows = await db
     .select({ plugId: switchEvents.plugId, on: switchEvents.toOn, at: switchEvents.at, ackAt: switchEvents.ackAt })
     .from(switchEvents)
-    .innerJoin(latest, and(eq(latest.plugId, switchEvents.plugId), eq(latest.at, switchEvents.at)));
+    .innerJoin(latest, and(eq(latest.plugId, switchEvents.plugId), eq(latest.at, switchEvents.at)))
+    .where(isNull(switchEvents.withdrawnAt));
   return rows.map((r) => ({ plugId: r.plugId, on: r.on, at: r.ackAt ?? r.at }));
 }
 

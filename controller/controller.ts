@@ -347,6 +347,9 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
       attempts: 1,
       isSwitch: runtime.knownOn !== decision.on,
     };
+    // A switch the plug never confirmed, now replaced: the log must not count it as
+    // done. Were it carried out after all, the plug's next report shows it (resync).
+    if (pending?.isSwitch) switchLog.withdraw(pending.id, new Date(nowMs));
     runtime.pending = command;
     if (command.isSwitch) {
       stats.switchesLogged++;

@@ -1,6 +1,7 @@
 // The switch log, written in batches. A switch is recorded when its command goes out
-// and completed when the plug acknowledges it; both are upserts keyed by the command
-// id, so a row is never written twice. While MariaDB is unreachable the rows wait
+// and completed when the plug acknowledges it, or withdrawn when a newer decision
+// replaces it first; all are upserts keyed by the command id, so a row is never
+// written twice. While MariaDB is unreachable the rows wait
 // here and go out in order when it is back.
 import type { Logger } from "pino";
 import type { Database } from "@/db/client";
@@ -19,6 +20,8 @@ export type SwitchLogOptions = {
 export type SwitchLog = {
   record: (row: SwitchRow) => void;
   acknowledge: (commandId: string, ackAt: Date, latencyMs: number) => void;
+  /** A newer decision replaced this switch before the plug confirmed it. */
+  withdraw: (commandId: string, at: Date) => void;
   /** Writes what is waiting now (ignoring any back-off). */
   flush: () => Promise<void>;
   waiting: () => number;
@@ -30,8 +33,9 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
   // Insertion order is write order. A row changed while its batch was being written
   // gets a new version and stays queued, so the change is written too.
   const queue = new Map<string, { row: SwitchRow; version: number }>();
-  // Rows that are in MariaDB already whose acknowledgement came later.
-  const acks = new Map<string, { ackAt: Date; latencyMs: number }>();
+  // Rows that are in MariaDB already whose acknowledgement or withdrawal came later.
+  type Later = { ackAt?: Date; latencyMs?: number; withdrawnAt?: Date };
+  const acks = new Map<string, Later>();
   const written = new Set<string>();
   let version = 0;
   let running: Promise<void> | undefined;
@@ -47,13 +51,13 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
   async function write() {
     while (queue.size > 0) {
       const batch = [...queue.values()].slice(0, options.maxBatch);
-      await insertMany(db, switchEvents, batch.map((b) => b.row), { fillIn: ["ackAt", "latencyMs"] });
+      await insertMany(db, switchEvents, batch.map((b) => b.row), { fillIn: ["ackAt", "latencyMs", "withdrawnAt"] });
       for (const { row, version: v } of batch) {
         written.add(row.commandId);
         if (queue.get(row.commandId)?.version === v) queue.delete(row.commandId);
       }
     }
-    // Acknowledgements of rows already written: one UPDATE for all that are waiting.
+    // Acknowledgements and withdrawals of rows already written: one UPDATE for all.
     const acked = [...acks];
     await updateMany(db, switchEvents, "commandId", acked.map(([commandId, ack]) => ({ commandId, ...ack })));
     for (const [commandId, ack] of acked) if (acks.get(commandId) === ack) acks.delete(commandId);
@@ -81,6 +85,12 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
     return running;
   }
 
+  function later(commandId: string, change: Later) {
+    const queued = queue.get(commandId);
+    if (queued) put({ ...queued.row, ...change });
+    else if (written.has(commandId)) acks.set(commandId, { ...acks.get(commandId), ...change });
+  }
+
   const timer = setInterval(() => void flush(), options.flushMs);
   timer.unref();
 
@@ -91,11 +101,8 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
       // its commands out before a thousand rows are formatted.
       if (queue.size === options.maxBatch) setImmediate(() => void flush());
     },
-    acknowledge(commandId, ackAt, latencyMs) {
-      const queued = queue.get(commandId);
-      if (queued) put({ ...queued.row, ackAt, latencyMs });
-      else if (written.has(commandId)) acks.set(commandId, { ackAt, latencyMs });
-    },
+    acknowledge: (commandId, ackAt, latencyMs) => later(commandId, { ackAt, latencyMs }),
+    withdraw: (commandId, at) => later(commandId, { withdrawnAt: at }),
     async flush() {
       await running;
       await flush(true);

@@ -17,7 +17,7 @@ export type PlugLive = {
   houseId: string;
   online: boolean;
   lastSeenAt: Date | null;
-  /** From the switch log: the state the plug was last switched to, why, and since when. */
+  /** From the switch log: the state the plug was last switched to (withdrawn switches aside), why, and since when. */
   on: boolean | null;
   cause: (typeof switchEvents.$inferSelect)["cause"] | null;
   since: Date | null;
@@ -102,7 +102,7 @@ export async function getSiteLive({ siteId, now = new Date() }: { siteId: string
         })
         .from(switchEvents)
         .where(
-          sql`${switchEvents.id} IN (SELECT MAX(id) FROM ${switchEvents} WHERE ${inArray(switchEvents.plugId, plugIds)} GROUP BY plug_id)`,
+          sql`${switchEvents.id} IN (SELECT MAX(id) FROM ${switchEvents} WHERE ${inArray(switchEvents.plugId, plugIds)} AND ${isNull(switchEvents.withdrawnAt)} GROUP BY plug_id)`,
         )
     : [];
 

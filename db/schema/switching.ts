@@ -26,6 +26,12 @@ export const switchEvents = mysqlTable(
     commandId: varchar("command_id", { length: 64 }).notNull().unique(),
     ackAt: instant("ack_at"),
     latencyMs: int("latency_ms"),
+    /**
+     * Set when a newer decision replaced this switch before the plug confirmed it: the
+     * plug is taken to have stayed as it was (its next report says otherwise if not).
+     * Such a row is history, not state: runtime and "on since" skip it.
+     */
+    withdrawnAt: instant("withdrawn_at"),
   },
   (t) => [index("switch_events_plug_at_idx").on(t.plugId, t.at), index("switch_events_at_idx").on(t.at)],
 );

@@ -1,0 +1,1 @@
+ALTER TABLE `switch_events` ADD `withdrawn_at` datetime(3);
