@@ -407,6 +407,13 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
       // The plug is not in the state the log says: it fell back on its own (no
       // command id) or the log missed a switch (e.g. across a restart). Record it
       // so runtime stays true.
+      if (pending?.isSwitch) {
+        // It got where a switch still in flight was taking it, but not by that
+        // command: that switch did not happen. The command still goes out, to put
+        // the plug under a lease again.
+        switchLog.withdraw(pending.id, new Date(nowMs));
+        pending.isSwitch = false;
+      }
       const id = `observed-${randomUUID()}`;
       stats.switchesLogged++;
       switchLog.record({
