@@ -92,6 +92,8 @@ type PlugRuntime = {
   pending: Pending | null;
   lastCommandMs: number;
   last: Decision | null;
+  /** The cause last stored as what keeps the plug in its state. */
+  heldBy: PlugConfig["heldBy"];
   alertGeneration: number;
 };
 
@@ -194,6 +196,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
         pending: before?.pending ?? null,
         lastCommandMs: before?.lastCommandMs ?? 0,
         last: before?.last ?? null,
+        heldBy: before ? before.heldBy : plug.heldBy,
         // Names and settings may have changed: look at alerts again on the next evaluation.
         alertGeneration: -1,
       });
@@ -327,6 +330,12 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
       raiseAlerts(runtime, decision);
     }
 
+    // Whatever follows, the plug is kept in (or sent to) the wanted state, for this
+    // cause; stored at once so a confirmed switch never shows the cause before it.
+    if (runtime.heldBy !== decision.cause) {
+      runtime.heldBy = decision.cause;
+      store.heldBy(runtime.config.id, decision.cause);
+    }
     const pending = runtime.pending;
     if (pending && pending.on === decision.on) return;
     const inState = runtime.knownOn === decision.on && runtime.reported?.on === decision.on;

@@ -1,4 +1,4 @@
-// Readings and device presence, written in batches. A sensor reports every few
+// Readings, device presence and why each plug is held as it is, written in batches. A sensor reports every few
 // seconds, so rows are gathered and inserted many at a time; raw rows are kept for a
 // set time and summarised per minute for the long run.
 import { and, gte, lt, sql } from "drizzle-orm";
@@ -21,11 +21,13 @@ export type ReadingsStoreOptions = {
 };
 
 type Seen = { table: "plugs" | "sensors"; id: string; online: boolean; lastSeenAt: Date };
+type HeldBy = NonNullable<(typeof plugs.$inferSelect)["heldBy"]>;
 
 export function createReadingsStore(options: ReadingsStoreOptions) {
   const { db, logger } = options;
   let queue: ReadingRow[] = [];
   const seen = new Map<string, Seen>();
+  const held = new Map<string, HeldBy>();
   let running: Promise<void> | undefined;
   let retryAt = 0;
   let failures = 0;
@@ -50,11 +52,14 @@ export function createReadingsStore(options: ReadingsStoreOptions) {
       await updateMany(db, table === "plugs" ? plugs : sensors, "id", rows);
     }
     for (const [key, s] of seenNow) if (seen.get(key) === s) seen.delete(key);
+    const heldNow = [...held];
+    await updateMany(db, plugs, "id", heldNow.map(([id, heldBy]) => ({ id, heldBy })));
+    for (const [id, heldBy] of heldNow) if (held.get(id) === heldBy) held.delete(id);
   }
 
   function flush(force = false): Promise<void> {
     if (running) return running;
-    if ((queue.length === 0 && seen.size === 0) || (!force && Date.now() < retryAt)) return Promise.resolve();
+    if ((queue.length === 0 && seen.size === 0 && held.size === 0) || (!force && Date.now() < retryAt)) return Promise.resolve();
     running = write()
       .then(() => {
         failures = 0;
@@ -133,6 +138,10 @@ export function createReadingsStore(options: ReadingsStoreOptions) {
     },
     seen(table: Seen["table"], id: string, online: boolean, at: Date) {
       seen.set(`${table}:${id}`, { table, id, online, lastSeenAt: at });
+    },
+    /** The cause the controller now keeps the plug in its state for. */
+    heldBy(plugId: string, cause: HeldBy) {
+      held.set(plugId, cause);
     },
     flush: async () => {
       await running;

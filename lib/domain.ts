@@ -40,3 +40,7 @@ export const APPLIANCE_KIND_LABELS: Record<ApplianceKind, string> = {
   light: "Light",
   other: "Other appliance",
 };
+
+/** Why a plug is in its state: the decision's causes, and `resync` for a change the controller found on restart. */
+export const SWITCH_CAUSES = ["safety", "override", "schedule", "default", "failsafe", "resync"] as const;
+export type SwitchCause = (typeof SWITCH_CAUSES)[number];

@@ -2,7 +2,7 @@
 
 import { formatInstant } from "./format";
 import type { PlugLiveJson } from "./live-data";
-import { causeWords, formatSiteTime } from "./live-format";
+import { causeWords, formatSiteTime, presentCause } from "./live-format";
 import { useNow, useSiteLive } from "./use-site-live";
 
 type State = "on" | "off" | "unknown";
@@ -38,6 +38,7 @@ export function PlugState({ plugId, name }: PlugStateProps) {
   const state: State = plug?.on === true ? "on" : plug?.on === false ? "off" : "unknown";
   const since = plug?.since ? new Date(plug.since) : null;
   const timeZone = live?.timeZone ?? "UTC";
+  const cause = plug ? presentCause(plug) : null;
 
   return (
     <>
@@ -50,7 +51,7 @@ export function PlugState({ plugId, name }: PlugStateProps) {
       </div>
       {plug ? (
         <p className="mt-0.5 text-sm text-frost-800">
-          {causeWords(plug)}
+          {causeWords({ cause, on: plug.on })}
           {since ? (
             <span className="text-frost-600">
               {" "}
@@ -61,6 +62,9 @@ export function PlugState({ plugId, name }: PlugStateProps) {
             </span>
           ) : null}
         </p>
+      ) : null}
+      {plug && plug.cause && cause !== plug.cause ? (
+        <p className="mt-0.5 text-xs text-frost-600">Last switched by: {causeWords(plug)}.</p>
       ) : null}
       {plug?.acknowledged === false ? (
         <p className="mt-0.5 text-xs text-frost-600">Switch sent, waiting for the plug to confirm it.</p>

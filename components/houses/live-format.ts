@@ -32,6 +32,15 @@ export function formatSiteTime(at: Date, now: Date, timeZone: string): string {
   return `${day}, ${time}`;
 }
 
+/**
+ * Why the plug is as it is now: once its last switch is confirmed, what the controller
+ * now keeps it so for (a plug that fell back to its fail-safe off may since be kept off
+ * by its schedule); before that, the switch on its way.
+ */
+export function presentCause(plug: Pick<PlugLiveJson, "cause" | "heldBy" | "acknowledged">): PlugLiveJson["cause"] {
+  return plug.acknowledged === false || !plug.heldBy ? plug.cause : plug.heldBy;
+}
+
 export function causeWords(plug: Pick<PlugLiveJson, "cause" | "on">): string {
   switch (plug.cause) {
     case "schedule":

@@ -22,6 +22,8 @@ export type PlugLive = {
   cause: (typeof switchEvents.$inferSelect)["cause"] | null;
   since: Date | null;
   acknowledged: boolean | null;
+  /** From the controller: why the plug is kept as it is now (can differ from the last switch's cause). */
+  heldBy: (typeof plugs.$inferSelect)["heldBy"];
 };
 
 export type SiteLive = {
@@ -42,7 +44,7 @@ export async function getSiteLive({ siteId, now = new Date() }: { siteId: string
       .from(sensors)
       .where(eq(sensors.siteId, siteId)),
     db
-      .select({ id: plugs.id, houseId: plugs.houseId, online: plugs.online, lastSeenAt: plugs.lastSeenAt })
+      .select({ id: plugs.id, houseId: plugs.houseId, online: plugs.online, lastSeenAt: plugs.lastSeenAt, heldBy: plugs.heldBy })
       .from(plugs)
       .where(eq(plugs.siteId, siteId)),
     db
@@ -133,6 +135,7 @@ export async function getSiteLive({ siteId, now = new Date() }: { siteId: string
         cause: event?.cause ?? null,
         since: event ? (event.ackAt ?? event.at) : null,
         acknowledged: event ? event.ackAt !== null : null,
+        heldBy: p.heldBy,
       };
     }),
     openAlerts,

@@ -1,4 +1,4 @@
-import { APPLIANCE_KINDS } from "../../lib/domain";
+import { APPLIANCE_KINDS, SWITCH_CAUSES } from "../../lib/domain";
 import {
   boolean,
   decimal,
@@ -79,6 +79,12 @@ export const plugs = mysqlTable(
     leaseS: int("lease_s").notNull().default(900),
     online: boolean("online").notNull().default(false),
     lastSeenAt: instant("last_seen_at"),
+    /**
+     * Why the controller keeps the plug as it is now, from its latest decision. It can
+     * differ from the cause of the last switch: a plug that fell back to its fail-safe
+     * off and that its schedule also wants off is now kept off by the schedule.
+     */
+    heldBy: mysqlEnum("held_by", SWITCH_CAUSES),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },

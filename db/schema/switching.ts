@@ -1,10 +1,11 @@
 import { bigint, boolean, decimal, index, int, mysqlEnum, mysqlTable, varchar } from "drizzle-orm/mysql-core";
+import { SWITCH_CAUSES } from "../../lib/domain";
 import { user } from "./auth";
 import { instant, ref } from "./columns";
 import { plugs } from "./devices";
 import { overrides } from "./overrides";
 
-export const SWITCH_CAUSES = ["safety", "override", "schedule", "default", "failsafe", "resync"] as const;
+export { SWITCH_CAUSES };
 
 /** Every switch of every plug: runtime, kWh and cost are computed from this log. */
 export const switchEvents = mysqlTable(

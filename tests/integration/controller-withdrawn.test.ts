@@ -109,7 +109,7 @@ describe("a switch replaced before the plug confirmed it", () => {
     expect((await heaterEvents()).map((e) => e.id)).toEqual(before.map((e) => e.id));
   });
 
-  it("is withdrawn when the plug turns up where it was taking it by itself, and that change is logged once", async () => {
+  it("is withdrawn when the plug turns up where it was taking it by itself; that change is logged once, and the overview says what keeps it so now", async () => {
     // Retries far off, so the command cannot reach the plug before its first report does.
     await heater!.close();
     await restart({ ackTimeoutMs: 60_000 });
@@ -134,5 +134,12 @@ describe("a switch replaced before the plug confirmed it", () => {
     expect(after.map((e) => e.id)).toEqual([sent.id, observed.id]);
     expect(after[0]!.withdrawnAt).not.toBeNull();
     expectChain(await heaterEvents());
+    // Its last switch was the fail-safe's, but what keeps it off now is its band.
+    const plug = await eventually(async () => {
+      await controller.flush();
+      const live = (await getSiteLive({ siteId: site.siteId })).plugs.find((p) => p.plugId === site.heaterId);
+      return live?.heldBy === "schedule" ? live : undefined;
+    }, 5000, "held off by the schedule");
+    expect(plug).toMatchObject({ on: false, cause: "failsafe", heldBy: "schedule", acknowledged: true });
   });
 });

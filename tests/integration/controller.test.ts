@@ -5,6 +5,7 @@ import { and, asc, eq, isNull } from "drizzle-orm";
 import pino from "pino";
 import type { MqttClient } from "mqtt";
 import { getDb } from "@/db/client";
+import { getSiteLive } from "@/db/queries/live";
 import { alerts, overrides, switchEvents, user } from "@/db/schema";
 import { issueDeviceCredential } from "@/db/device-credentials";
 import { createController, type Controller, type ControllerOptions } from "@/controller/controller";
@@ -153,8 +154,16 @@ describe("the controller", () => {
     });
     expect(on).toMatchObject({ cause: "override", userId, overrideId });
 
-    // It ends on its own: 11 °C lies between the edges, the schedule keeps the state it finds (on)...
-    // so cool it past the high edge to see the schedule take over again.
+    // It ends on its own: 11 °C lies between the edges, so the schedule keeps the state it
+    // finds (on). The overview says so: switched on by the override, held on by the schedule.
+    const held = await eventually(async () => {
+      await controller.flush();
+      const live = (await getSiteLive({ siteId: site.siteId })).plugs.find((p) => p.plugId === site.heaterId);
+      return live?.heldBy === "schedule" ? live : undefined;
+    }, 5000, "held on by the schedule after the override");
+    expect(held).toMatchObject({ on: true, cause: "override", acknowledged: true });
+    expect(heater.on).toBe(true);
+    // Warm it past the high edge to see the schedule switch it.
     temperature = 12.5;
     await eventually(() => !heater.on, 5000, "back to schedule");
     expect(await lastEvent()).toMatchObject({ toOn: false, cause: "schedule" });

@@ -1,0 +1,1 @@
+ALTER TABLE `plugs` ADD `held_by` enum('safety','override','schedule','default','failsafe','resync');
