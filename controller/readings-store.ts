@@ -1,11 +1,12 @@
-// Readings, device presence and why each plug is held as it is, written in batches. A sensor reports every few
-// seconds, so rows are gathered and inserted many at a time; raw rows are kept for a
-// set time and summarised per minute for the long run.
+// Readings, device presence and what holds each plug as it is, written in batches. A
+// sensor reports every few seconds, so rows are gathered and inserted many at a time;
+// raw rows are kept for a set time and summarised per minute for the long run.
 import { and, gte, lt, sql } from "drizzle-orm";
 import type { Logger } from "pino";
 import type { Database } from "@/db/client";
 import { plugs, readingMinutes, readings, sensors } from "@/db/schema";
 import { insertMany, updateMany } from "@/db/bulk";
+import type { SwitchCause } from "@/lib/domain";
 
 export type ReadingRow = typeof readings.$inferInsert;
 
@@ -21,13 +22,12 @@ export type ReadingsStoreOptions = {
 };
 
 type Seen = { table: "plugs" | "sensors"; id: string; online: boolean; lastSeenAt: Date };
-type HeldBy = NonNullable<(typeof plugs.$inferSelect)["heldBy"]>;
 
 export function createReadingsStore(options: ReadingsStoreOptions) {
   const { db, logger } = options;
   let queue: ReadingRow[] = [];
   const seen = new Map<string, Seen>();
-  const held = new Map<string, HeldBy>();
+  const held = new Map<string, SwitchCause>();
   let running: Promise<void> | undefined;
   let retryAt = 0;
   let failures = 0;
@@ -140,7 +140,7 @@ export function createReadingsStore(options: ReadingsStoreOptions) {
       seen.set(`${table}:${id}`, { table, id, online, lastSeenAt: at });
     },
     /** The cause the controller now keeps the plug in its state for. */
-    heldBy(plugId: string, cause: HeldBy) {
+    heldBy(plugId: string, cause: SwitchCause) {
       held.set(plugId, cause);
     },
     flush: async () => {
