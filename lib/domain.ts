@@ -41,6 +41,22 @@ export const APPLIANCE_KIND_LABELS: Record<ApplianceKind, string> = {
   other: "Other appliance",
 };
 
-/** Why a plug is in its state: the decision's causes, and `resync` for a change the controller found on restart. */
-export const SWITCH_CAUSES = ["safety", "override", "schedule", "default", "failsafe", "resync"] as const;
+/**
+ * Why a plug is in its state. The decision's causes (`failsafe` is the controller's
+ * rule for a quiet sensor), and two the controller only observes: `plug_fallback`, a
+ * plug that switched by itself (its command lease ran out), and `resync`, a plug found
+ * in another state than the log says after a command the controller does not know.
+ */
+export const SWITCH_CAUSES = ["safety", "override", "schedule", "default", "failsafe", "plug_fallback", "resync"] as const;
 export type SwitchCause = (typeof SWITCH_CAUSES)[number];
+
+/** One label per cause, for every page, list and export. */
+export const SWITCH_CAUSE_LABELS: Record<SwitchCause, string> = {
+  safety: "Safety cut-out",
+  override: "Manual override",
+  schedule: "Schedule",
+  default: "Outside time windows",
+  failsafe: "Quiet-sensor fail-safe",
+  plug_fallback: "Plug's own fall-back",
+  resync: "Found changed",
+};

@@ -9,3 +9,4 @@ export * from "./switching";
 export * from "./tariffs";
 export * from "./alerts";
 export * from "./audit";
+export * from "./state";

@@ -1,5 +1,5 @@
 import { ROLES } from "../../lib/domain";
-import { char, index, mysqlEnum, mysqlTable, uniqueIndex, varchar, smallint } from "drizzle-orm/mysql-core";
+import { char, index, mysqlEnum, mysqlTable, uniqueIndex, varchar, smallint, tinyint } from "drizzle-orm/mysql-core";
 import { user } from "./auth";
 import { createdAt, id, ref, updatedAt } from "./columns";
 
@@ -15,6 +15,8 @@ export const sites = mysqlTable("sites", {
   /** ISO 4217 code. */
   currency: char("currency", { length: 3 }).notNull(),
   mainsVoltage: smallint("mains_voltage").notNull().default(230),
+  /** A load that runs for hours may draw at most this percent of its plug's rating (80 % in NEC 210.19(A)/210.20(A)). */
+  continuousLoadPercent: tinyint("continuous_load_percent").notNull().default(80),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
 });
