@@ -51,7 +51,7 @@ export function PlugState({ plugId, name }: PlugStateProps) {
       </div>
       {plug ? (
         <p className="mt-0.5 text-sm text-frost-800">
-          {causeWords({ cause, on: plug.on })}
+          {causeWords({ cause })}
           {since ? (
             <span className="text-frost-600">
               {" "}

@@ -1,3 +1,4 @@
+import { SWITCH_CAUSE_LABELS } from "@/lib/domain";
 import type { PlugLiveJson } from "./live-data";
 
 /** One decimal, with a true minus sign (frost readings are often below zero) and no "−0.0". */
@@ -41,25 +42,8 @@ export function presentCause(plug: Pick<PlugLiveJson, "cause" | "heldBy" | "ackn
   return plug.acknowledged === false || !plug.heldBy ? plug.cause : plug.heldBy;
 }
 
-export function causeWords(plug: Pick<PlugLiveJson, "cause" | "on">): string {
-  switch (plug.cause) {
-    case "schedule":
-      return "Schedule";
-    case "override":
-      return "Manual override";
-    case "safety":
-      return "Safety cut-out";
-    case "failsafe":
-      return "Fail-safe";
-    case "resync":
-      return "Re-synced after restart";
-    case "default":
-      // Outside schedule windows a plug is either kept off or held in the frost band;
-      // only the frost band switches it on, and an "off" can be either, so say only what is sure.
-      return plug.on ? "Frost protection" : "Outside schedule times";
-    case null:
-      return "Not switched by Cloche yet";
-  }
+export function causeWords(plug: Pick<PlugLiveJson, "cause">): string {
+  return plug.cause === null ? "Not switched by Cloche yet" : SWITCH_CAUSE_LABELS[plug.cause];
 }
 
 const ALERT_WORDS: Record<string, string> = {

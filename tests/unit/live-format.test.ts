@@ -14,6 +14,6 @@ describe("presentCause", () => {
     expect(presentCause({ cause: null, heldBy: null, acknowledged: null })).toBeNull();
   });
   it("reads in the grower's words", () => {
-    expect(causeWords({ cause: presentCause({ cause: "failsafe", heldBy: "default", acknowledged: true }), on: false })).toBe("Outside schedule times");
+    expect(causeWords({ cause: presentCause({ cause: "failsafe", heldBy: "default", acknowledged: true }) })).toBe("Outside time windows");
   });
 });
