@@ -2,7 +2,7 @@ import { alertSet, OVERLOAD, SENSOR_QUIET, TOO_HOT } from "./alerts";
 import { bandSenseFor, edgeReached, edgeWantsOn, type BandSense } from "./band";
 import { dutyCycleOn } from "./duty";
 import { currentDrawA, isOverloaded } from "./electrical";
-import { heldUntil } from "./guard";
+import { guardUntil } from "./guard";
 import { freshTempC } from "./sensor";
 import type { Cause, Decision, DecisionInput } from "./types";
 
@@ -157,10 +157,10 @@ function guarded(
   const current = input.current;
   if (current === null || current.on === wanted) return result(wanted, cause, wanted, null, reason, tempC, alerts);
   const { rules } = input;
-  const until = heldUntil(current, input.nowMs, rules.minOnS, rules.minOffS);
+  const until = guardUntil(current, input.nowMs, rules.minOnS, rules.minOffS);
   if (until === null) return result(wanted, cause, wanted, null, reason, tempC, alerts);
-  const held = current.on ? "; held on for the minimum on time" : "; held off for the minimum off time";
-  return result(current.on, cause, wanted, until, reason + held, tempC, alerts);
+  const waiting = current.on ? "; waiting out the minimum on time" : "; waiting out the minimum off time";
+  return result(current.on, cause, wanted, until, reason + waiting, tempC, alerts);
 }
 
 function overloadReason({ rules }: DecisionInput): string {
@@ -174,10 +174,10 @@ function result(
   on: boolean,
   cause: Cause,
   wanted: boolean,
-  heldUntilMs: number | null,
+  guardUntilMs: number | null,
   reason: string,
   readingTempC: number | null,
   alerts: number,
 ): Decision {
-  return { on, cause, wanted, heldUntilMs, reason, readingTempC, alerts: alertSet(alerts) };
+  return { on, cause, wanted, guardUntilMs, reason, readingTempC, alerts: alertSet(alerts) };
 }

@@ -3,7 +3,7 @@
  * allowed, or null when it is allowed now. The plug must have been on for `minOnS`
  * (or off for `minOffS`) first; the change goes through exactly at that boundary.
  */
-export function heldUntil(
+export function guardUntil(
   current: { on: boolean; sinceMs: number },
   nowMs: number,
   minOnS: number,

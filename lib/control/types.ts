@@ -50,7 +50,7 @@ export type Decision = {
   /** What the rule in force asks for, before the anti-short-cycle guard. */
   wanted: boolean;
   /** When the guard holds a change back: the instant it lets it through. */
-  heldUntilMs: number | null;
+  guardUntilMs: number | null;
   /** Short, for people: "at or below 8 °C low edge". */
   reason: string;
   /** The latest fresh temperature, whether or not the rule in force used it. */

@@ -137,11 +137,11 @@ describe("decision properties", () => {
     fc.assert(
       fc.property(input, (i) => {
         const d = decide(i);
-        if (d.heldUntilMs === null) return;
+        if (d.guardUntilMs === null) return;
         expect(i.current).not.toBeNull();
         expect(d.on).toBe(i.current!.on);
         expect(d.wanted).toBe(!d.on);
-        expect(d.heldUntilMs).toBeGreaterThan(i.nowMs);
+        expect(d.guardUntilMs).toBeGreaterThan(i.nowMs);
         expect(["schedule", "default", "failsafe"]).toContain(d.cause);
       }),
     );
@@ -179,7 +179,7 @@ describe("decision properties", () => {
         const d = decide(i);
         expect(d.cause).toBe(i.window === null ? "default" : "schedule");
         expect(d.on).toBe(i.current === null ? false : i.current.on);
-        expect(d.heldUntilMs).toBeNull();
+        expect(d.guardUntilMs).toBeNull();
       }),
     );
   });

@@ -101,7 +101,7 @@ describe("safety cut-outs", () => {
       reading: read(36),
       current: justSwitched(true),
       window: windowOn,
-      expected: { on: false, cause: "safety", heldUntilMs: null, alerts: ["too_hot"] },
+      expected: { on: false, cause: "safety", guardUntilMs: null, alerts: ["too_hot"] },
     },
     {
       name: "a stale reading cannot trip the high limit (the band falls to its fail-safe)",
@@ -135,7 +135,7 @@ describe("safety cut-outs", () => {
       rules: { applianceWatts: 3000 },
       current: justSwitched(true),
       window: windowOn,
-      expected: { on: false, cause: "safety", heldUntilMs: null, alerts: ["overload"] },
+      expected: { on: false, cause: "safety", guardUntilMs: null, alerts: ["overload"] },
     },
     {
       name: "an overloaded light under an on window stays off",
@@ -190,13 +190,13 @@ describe("override", () => {
       name: "override is not held back by the minimum off time",
       current: justSwitched(false),
       override: { id: "o1", on: true },
-      expected: { on: true, wanted: true, cause: "override", heldUntilMs: null },
+      expected: { on: true, wanted: true, cause: "override", guardUntilMs: null },
     },
     {
       name: "override is not held back by the minimum on time",
       current: justSwitched(true),
       override: { id: "o1", on: false },
-      expected: { on: false, cause: "override", heldUntilMs: null },
+      expected: { on: false, cause: "override", guardUntilMs: null },
     },
     {
       name: "override with the plug's state unknown",
@@ -229,7 +229,7 @@ describe("schedule: heating band (heater, light, other)", () => {
       rules: { applianceKind: kind },
       reading: read(tempC),
       current,
-      expected: { on, wanted: on, cause: "schedule" as const, reason, readingTempC: tempC, heldUntilMs: null },
+      expected: { on, wanted: on, cause: "schedule" as const, reason, readingTempC: tempC, guardUntilMs: null },
     })),
   );
   it.each(cases)("$name", check);
@@ -430,7 +430,7 @@ describe("stale sensor → fail-safe", () => {
       name: "fail-safe is held back by the minimum on time",
       reading: null,
       current: justSwitched(true, 60_000),
-      expected: { on: true, wanted: false, cause: "failsafe", heldUntilMs: NOW + 120_000, alerts: ["sensor_quiet"] },
+      expected: { on: true, wanted: false, cause: "failsafe", guardUntilMs: NOW + 120_000, alerts: ["sensor_quiet"] },
     },
   ];
   it.each(cases)("$name", check);
@@ -488,8 +488,8 @@ describe("anti-short-cycle guard", () => {
         on: true,
         wanted: false,
         cause: "schedule",
-        heldUntilMs: NOW + 1,
-        reason: "window off; held on for the minimum on time",
+        guardUntilMs: NOW + 1,
+        reason: "window off; waiting out the minimum on time",
       },
     },
     {
@@ -497,7 +497,7 @@ describe("anti-short-cycle guard", () => {
       rules,
       window: windowOff,
       current: justSwitched(true, 180_000),
-      expected: { on: false, wanted: false, heldUntilMs: null, reason: "window off" },
+      expected: { on: false, wanted: false, guardUntilMs: null, reason: "window off" },
     },
     {
       name: "off for 59.999 s of 60: the switch-on is held (the minimum off time, not on)",
@@ -507,8 +507,8 @@ describe("anti-short-cycle guard", () => {
       expected: {
         on: false,
         wanted: true,
-        heldUntilMs: NOW + 1,
-        reason: "at or below 8 °C low edge; held off for the minimum off time",
+        guardUntilMs: NOW + 1,
+        reason: "at or below 8 °C low edge; waiting out the minimum off time",
       },
     },
     {
@@ -516,42 +516,42 @@ describe("anti-short-cycle guard", () => {
       rules,
       reading: read(7),
       current: justSwitched(false, 60_000),
-      expected: { on: true, wanted: true, heldUntilMs: null },
+      expected: { on: true, wanted: true, guardUntilMs: null },
     },
     {
       name: "no change wanted: nothing to hold",
       rules,
       window: windowOn,
       current: justSwitched(true, 1_000),
-      expected: { on: true, heldUntilMs: null },
+      expected: { on: true, guardUntilMs: null },
     },
     {
       name: "state unknown: no guard",
       rules,
       window: windowOn,
       current: null,
-      expected: { on: true, heldUntilMs: null },
+      expected: { on: true, guardUntilMs: null },
     },
     {
       name: "the default outside windows is guarded too",
       rules,
       window: null,
       current: justSwitched(true, 30_000),
-      expected: { on: true, wanted: false, cause: "default", heldUntilMs: NOW + 150_000 },
+      expected: { on: true, wanted: false, cause: "default", guardUntilMs: NOW + 150_000 },
     },
     {
       name: "a last change stamped in the future (clock skew) holds until its own minimum",
       rules,
       window: windowOff,
       current: { on: true, sinceMs: NOW + 5_000 },
-      expected: { on: true, heldUntilMs: NOW + 185_000 },
+      expected: { on: true, guardUntilMs: NOW + 185_000 },
     },
     {
       name: "no minimum set: changes go straight through",
       rules: { minOnS: 0, minOffS: 0 },
       window: windowOff,
       current: justSwitched(true, 0),
-      expected: { on: false, heldUntilMs: null },
+      expected: { on: false, guardUntilMs: null },
     },
   ];
   it.each(cases)("$name", check);
@@ -560,10 +560,10 @@ describe("anti-short-cycle guard", () => {
 describe("describeCause", () => {
   it.each([
     [{ cause: "schedule", reason: "at or below 8 °C low edge" }, "Schedule: at or below 8 °C low edge"],
-    [{ cause: "default", reason: "outside windows: off" }, "Outside windows: outside windows: off"],
-    [{ cause: "failsafe", reason: "sensor quiet: fail-safe on" }, "Sensor quiet, fail-safe: sensor quiet: fail-safe on"],
+    [{ cause: "default", reason: "outside windows: off" }, "Outside time windows: outside windows: off"],
+    [{ cause: "failsafe", reason: "sensor quiet: fail-safe on" }, "Quiet-sensor fail-safe: sensor quiet: fail-safe on"],
     [{ cause: "safety", reason: "at or above 35 °C high limit" }, "Safety cut-out: at or above 35 °C high limit"],
-    [{ cause: "override", reason: "override on" }, "Override: override on"],
+    [{ cause: "override", reason: "override on" }, "Manual override: override on"],
   ] as const)("%o → %s", (decision, text) => {
     expect(describeCause(decision)).toBe(text);
   });
