@@ -14,7 +14,6 @@ import {
   schedules,
   sensors,
   sites,
-  switchEvents,
 } from "@/db/schema";
 
 export type SiteConfig = { id: string; slug: string; timeZone: string; mainsVoltage: number };
@@ -45,7 +44,6 @@ export type OverrideConfig = {
   untilNextChange: boolean;
   userId: string | null;
 };
-export type LastSwitch = { plugId: string; on: boolean; at: Date };
 
 export type Config = {
   sites: SiteConfig[];
@@ -153,23 +151,6 @@ export async function loadLatestReadings(db: Database, sensorIds: string[], now:
     .select({ sensorId: readings.sensorId, tempC: readings.tempC, at: readings.at })
     .from(readings)
     .innerJoin(latest, and(eq(latest.sensorId, readings.sensorId), eq(latest.at, readings.at)));
-}
-
-/** The last logged state of each plug, so a restarted controller knows where it left off. */
-export async function loadLastSwitches(db: Database, plugIds: string[]): Promise<LastSwitch[]> {
-  if (plugIds.length === 0) return [];
-  const latest = db
-    .select({ plugId: switchEvents.plugId, at: sql<Date>`MAX(${switchEvents.at})`.as("latest_at") })
-    .from(switchEvents)
-    .where(and(inArray(switchEvents.plugId, plugIds), isNull(switchEvents.withdrawnAt)))
-    .groupBy(switchEvents.plugId)
-    .as("latest");
-  const rows = await db
-    .select({ plugId: switchEvents.plugId, on: switchEvents.toOn, at: switchEvents.at, ackAt: switchEvents.ackAt })
-    .from(switchEvents)
-    .innerJoin(latest, and(eq(latest.plugId, switchEvents.plugId), eq(latest.at, switchEvents.at)))
-    .where(isNull(switchEvents.withdrawnAt));
-  return rows.map((r) => ({ plugId: r.plugId, on: r.on, at: r.ackAt ?? r.at }));
 }
 
 /** A plug's settings with its house's limit and its site's voltage, as the decision takes them. */

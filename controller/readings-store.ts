@@ -1,12 +1,11 @@
-// Readings, device presence and what holds each plug as it is, written in batches. A
+// Readings, device presence and each plug's last report, written in batches. A
 // sensor reports every few seconds, so rows are gathered and inserted many at a time;
 // raw rows are kept for a set time and summarised per minute for the long run.
 import { and, gte, lt, sql } from "drizzle-orm";
 import type { Logger } from "pino";
 import type { Database } from "@/db/client";
-import { plugs, readingMinutes, readings, sensors } from "@/db/schema";
+import { plugStates, readingMinutes, readings, sensorStates } from "@/db/schema";
 import { insertMany, updateMany } from "@/db/bulk";
-import type { SwitchCause } from "@/lib/domain";
 
 export type ReadingRow = typeof readings.$inferInsert;
 
@@ -21,13 +20,14 @@ export type ReadingsStoreOptions = {
   now: () => number;
 };
 
-type Seen = { table: "plugs" | "sensors"; id: string; online: boolean; lastSeenAt: Date };
+type PlugSeen = Partial<Pick<typeof plugStates.$inferSelect, "online" | "lastSeenAt" | "reportedOn" | "reportedAt" | "watts" | "wattHours">>;
+type SensorSeen = Pick<typeof sensorStates.$inferSelect, "online" | "lastSeenAt">;
 
 export function createReadingsStore(options: ReadingsStoreOptions) {
   const { db, logger } = options;
   let queue: ReadingRow[] = [];
-  const seen = new Map<string, Seen>();
-  const held = new Map<string, SwitchCause>();
+  const plugsSeen = new Map<string, PlugSeen>();
+  const sensorsSeen = new Map<string, SensorSeen>();
   let running: Promise<void> | undefined;
   let retryAt = 0;
   let failures = 0;
@@ -45,21 +45,25 @@ export function createReadingsStore(options: ReadingsStoreOptions) {
       for (const row of batch) earliestWritten = Math.min(earliestWritten, row.at.getTime());
       queue = queue.slice(batch.length);
     }
-    // Presence: one UPDATE per table for everything seen since the last write.
-    const seenNow = [...seen];
-    for (const table of ["plugs", "sensors"] as const) {
-      const rows = seenNow.filter(([, s]) => s.table === table).map(([, s]) => ({ id: s.id, online: s.online, lastSeenAt: s.lastSeenAt }));
-      await updateMany(db, table === "plugs" ? plugs : sensors, "id", rows);
+    // Presence and reports: the rows made when missing, then one UPDATE per table.
+    const updatedAt = new Date();
+    const plugsNow = [...plugsSeen];
+    const sensorsNow = [...sensorsSeen];
+    if (plugsNow.length > 0) {
+      await insertMany(db, plugStates, plugsNow.map(([plugId]) => ({ plugId, updatedAt })), { keep: true });
+      await updateMany(db, plugStates, "plugId", plugsNow.map(([plugId, seen]) => ({ plugId, ...seen, updatedAt })));
     }
-    for (const [key, s] of seenNow) if (seen.get(key) === s) seen.delete(key);
-    const heldNow = [...held];
-    await updateMany(db, plugs, "id", heldNow.map(([id, heldBy]) => ({ id, heldBy })));
-    for (const [id, heldBy] of heldNow) if (held.get(id) === heldBy) held.delete(id);
+    if (sensorsNow.length > 0) {
+      await insertMany(db, sensorStates, sensorsNow.map(([sensorId]) => ({ sensorId, updatedAt })), { keep: true });
+      await updateMany(db, sensorStates, "sensorId", sensorsNow.map(([sensorId, seen]) => ({ sensorId, ...seen, updatedAt })));
+    }
+    for (const [id, seen] of plugsNow) if (plugsSeen.get(id) === seen) plugsSeen.delete(id);
+    for (const [id, seen] of sensorsNow) if (sensorsSeen.get(id) === seen) sensorsSeen.delete(id);
   }
 
   function flush(force = false): Promise<void> {
     if (running) return running;
-    if ((queue.length === 0 && seen.size === 0 && held.size === 0) || (!force && Date.now() < retryAt)) return Promise.resolve();
+    if ((queue.length === 0 && plugsSeen.size === 0 && sensorsSeen.size === 0) || (!force && Date.now() < retryAt)) return Promise.resolve();
     running = write()
       .then(() => {
         failures = 0;
@@ -136,12 +140,14 @@ export function createReadingsStore(options: ReadingsStoreOptions) {
       }
       if (queue.length >= options.maxBatch) void flush();
     },
-    seen(table: Seen["table"], id: string, online: boolean, at: Date) {
-      seen.set(`${table}:${id}`, { table, id, online, lastSeenAt: at });
+    sensorSeen(sensorId: string, online: boolean, at: Date) {
+      sensorsSeen.set(sensorId, { online, lastSeenAt: at });
     },
-    /** The cause the controller now keeps the plug in its state for. */
-    heldBy(plugId: string, cause: SwitchCause) {
-      held.set(plugId, cause);
+    /** A plug was heard: its presence, and its report when it sent one. */
+    plugSeen(plugId: string, online: boolean, at: Date, report?: { on: boolean; at: Date; watts: number | null; wh: number | null }) {
+      const seen: PlugSeen = { ...plugsSeen.get(plugId), online, lastSeenAt: at };
+      if (report) Object.assign(seen, { reportedOn: report.on, reportedAt: report.at, watts: report.watts, wattHours: report.wh === null ? null : Math.round(report.wh) });
+      plugsSeen.set(plugId, seen);
     },
     flush: async () => {
       await running;

@@ -1,14 +1,22 @@
-// The switch log, written in batches. A switch is recorded when its command goes out
-// and completed when the plug acknowledges it, or withdrawn when a newer decision
-// replaces it first; all are upserts keyed by the command id, so a row is never
-// written twice. While MariaDB is unreachable the rows wait
-// here and go out in order when it is back.
+// The switch log and each plug's present state, written in batches. A switch is
+// recorded when its command goes out and completed when the plug acknowledges it, or
+// withdrawn when a newer decision replaces it first; all are upserts keyed by the
+// command id, so a row is never written twice. The present state (plug_states) goes
+// in the same transaction as the log rows it points at, so the two never disagree:
+// the pages and a restarted controller read it. While MariaDB is unreachable the rows
+// wait here and go out in order when it is back.
 import type { Logger } from "pino";
 import type { Database } from "@/db/client";
-import { switchEvents } from "@/db/schema";
+import { plugStates, switchEvents } from "@/db/schema";
 import { insertMany, updateMany } from "@/db/bulk";
 
 export type SwitchRow = typeof switchEvents.$inferInsert & { commandId: string };
+
+/** The columns of plug_states that follow the switch lifecycle. */
+export type PresentState = Pick<
+  typeof plugStates.$inferSelect,
+  "on" | "since" | "switchCommandId" | "presentCause" | "pendingOn" | "pendingCommandId" | "pendingSince" | "guardUntil"
+>;
 
 export type SwitchLogOptions = {
   db: Database;
@@ -22,6 +30,8 @@ export type SwitchLog = {
   acknowledge: (commandId: string, ackAt: Date, latencyMs: number) => void;
   /** A newer decision replaced this switch before the plug confirmed it. */
   withdraw: (commandId: string, at: Date) => void;
+  /** The plug's present state now; written with the log rows recorded before it. */
+  present: (plugId: string, state: PresentState) => void;
   /** Writes what is waiting now (ignoring any back-off). */
   flush: () => Promise<void>;
   waiting: () => number;
@@ -37,6 +47,7 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
   type Later = { ackAt?: Date; latencyMs?: number; withdrawnAt?: Date };
   const acks = new Map<string, Later>();
   const written = new Set<string>();
+  const present = new Map<string, PresentState>();
   let version = 0;
   let running: Promise<void> | undefined;
   let failures = 0;
@@ -49,25 +60,35 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
   }
 
   async function write() {
-    while (queue.size > 0) {
-      const batch = [...queue.values()].slice(0, options.maxBatch);
-      await insertMany(db, switchEvents, batch.map((b) => b.row), { fillIn: ["ackAt", "latencyMs", "withdrawnAt"] });
-      for (const { row, version: v } of batch) {
-        written.add(row.commandId);
-        if (queue.get(row.commandId)?.version === v) queue.delete(row.commandId);
-      }
-    }
-    // Acknowledgements and withdrawals of rows already written: one UPDATE for all.
+    const batch = [...queue.values()];
     const acked = [...acks];
-    await updateMany(db, switchEvents, "commandId", acked.map(([commandId, ack]) => ({ commandId, ...ack })));
+    const states = [...present];
+    await db.transaction(async (tx) => {
+      for (let i = 0; i < batch.length; i += options.maxBatch) {
+        const rows = batch.slice(i, i + options.maxBatch).map((b) => b.row);
+        await insertMany(tx, switchEvents, rows, { fillIn: ["ackAt", "latencyMs", "withdrawnAt"] });
+      }
+      // Acknowledgements and withdrawals of rows already written: one UPDATE for all.
+      await updateMany(tx, switchEvents, "commandId", acked.map(([commandId, ack]) => ({ commandId, ...ack })));
+      if (states.length > 0) {
+        const updatedAt = new Date();
+        await insertMany(tx, plugStates, states.map(([plugId]) => ({ plugId, updatedAt })), { keep: true });
+        await updateMany(tx, plugStates, "plugId", states.map(([plugId, state]) => ({ plugId, ...state, updatedAt })));
+      }
+    });
+    for (const { row, version: v } of batch) {
+      written.add(row.commandId);
+      if (queue.get(row.commandId)?.version === v) queue.delete(row.commandId);
+    }
     for (const [commandId, ack] of acked) if (acks.get(commandId) === ack) acks.delete(commandId);
+    for (const [plugId, state] of states) if (present.get(plugId) === state) present.delete(plugId);
     // Only recent command ids can still be acknowledged; keep the set small.
     if (written.size > 50_000) written.clear();
   }
 
   function flush(force = false): Promise<void> {
     if (running) return running;
-    if ((queue.size === 0 && acks.size === 0) || (!force && Date.now() < retryAt)) return Promise.resolve();
+    if ((queue.size === 0 && acks.size === 0 && present.size === 0) || (!force && Date.now() < retryAt)) return Promise.resolve();
     running = write()
       .then(() => {
         if (failures > 0) logger.info({ failures }, "switch log is writing again");
@@ -103,18 +124,21 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
     },
     acknowledge: (commandId, ackAt, latencyMs) => later(commandId, { ackAt, latencyMs }),
     withdraw: (commandId, at) => later(commandId, { withdrawnAt: at }),
+    present(plugId, state) {
+      present.set(plugId, state);
+    },
     async flush() {
       await running;
       await flush(true);
     },
-    waiting: () => queue.size + acks.size,
+    waiting: () => queue.size + acks.size + present.size,
     async close() {
       if (closed) return;
       closed = true;
       clearInterval(timer);
       await running;
       await flush(true);
-      if (queue.size || acks.size) logger.error({ rows: queue.size + acks.size }, "switch log closed with rows unwritten");
+      if (queue.size || acks.size || present.size) logger.error({ rows: queue.size + acks.size + present.size }, "switch log closed with rows unwritten");
     },
   };
 }

@@ -6,9 +6,9 @@
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { createHash } from "node:crypto";
-import { and, count, eq, inArray } from "drizzle-orm";
+import { count, inArray } from "drizzle-orm";
 import { connect, type Database } from "../db/client";
-import { plugs, readingMinutes, readings, switchEvents } from "../db/schema";
+import { plugStates, readingMinutes, readings, switchEvents } from "../db/schema";
 import { insertMany } from "../db/bulk";
 import { loadConfig, rulesOf } from "../controller/config";
 import { compilePlugSchedule } from "../controller/plug-schedule";
@@ -52,6 +52,8 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
     ),
     on: false,
     sinceMs: startMs - 3600_000,
+    switchId: null as string | null,
+    cause: null as ReturnType<typeof decide>["cause"] | null,
   }));
   const sensorOfHouse = new Map(layout.sensors.map((s) => [s.houseId, s.id]));
   const model = createSiteModel({
@@ -114,6 +116,7 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
         override: null,
         window: r.schedule.activeAt(t),
       });
+      r.cause = decision.cause;
       if (decision.on === r.on) continue;
       // Plugs answer on a quiet loopback network in a fraction of a second.
       const latencyMs = 120 + ((t / MINUTE) % 7) * 35;
@@ -130,16 +133,29 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
         latencyMs,
       });
       r.on = decision.on;
-      r.sinceMs = t;
+      r.sinceMs = t + latencyMs;
+      r.switchId = historyId(r.plug.id, t);
     }
     if (minutes.length >= 6000) await flush();
   }
   await flush(true);
-  // The plugs' rows say when they were last heard from, as the controller would have.
-  await db
-    .update(plugs)
-    .set({ lastSeenAt: new Date(endMs) })
-    .where(and(eq(plugs.siteId, site.id), inArray(plugs.id, plugIds)));
+  // Each plug's present state where the history leaves it, as the controller would
+  // have stored it: a controller starting now carries on from there.
+  const updatedAt = new Date(endMs);
+  await insertMany(
+    db,
+    plugStates,
+    runtimes.map((r) => ({
+      plugId: r.plug.id,
+      on: r.switchId ? r.on : null,
+      since: r.switchId ? new Date(r.sinceMs) : null,
+      switchCommandId: r.switchId,
+      presentCause: r.cause,
+      lastSeenAt: updatedAt,
+      updatedAt,
+    })),
+    { fillIn: ["on", "since", "switchCommandId", "presentCause", "lastSeenAt", "updatedAt"] },
+  );
   return { skipped: false, ...written };
 }
 

@@ -38,8 +38,8 @@ export function formatSiteTime(at: Date, now: Date, timeZone: string): string {
  * now keeps it so for (a plug that fell back to its fail-safe off may since be kept off
  * by its schedule); before that, the switch on its way.
  */
-export function presentCause(plug: Pick<PlugLiveJson, "cause" | "heldBy" | "acknowledged">): PlugLiveJson["cause"] {
-  return plug.acknowledged === false || !plug.heldBy ? plug.cause : plug.heldBy;
+export function presentCause(plug: Pick<PlugLiveJson, "cause" | "presentCause" | "acknowledged">): PlugLiveJson["cause"] {
+  return plug.acknowledged === false || !plug.presentCause ? plug.cause : plug.presentCause;
 }
 
 export function causeWords(plug: Pick<PlugLiveJson, "cause">): string {

@@ -1,8 +1,8 @@
 import "server-only";
-import { and, asc, eq, inArray } from "drizzle-orm";
+import { and, asc, eq, inArray, sql } from "drizzle-orm";
 import { randomUUID } from "node:crypto";
 import { getDb } from "@/db/client";
-import { houses, plugs, sensors } from "@/db/schema";
+import { houses, plugStates, plugs, sensorStates, sensors } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import type { HouseChange, HouseInput } from "@/lib/schemas/house";
 import { recordAudit } from "./audit";
@@ -10,9 +10,9 @@ import { recordAudit } from "./audit";
 export type House = typeof houses.$inferSelect;
 export type PlugSummary = Pick<
   typeof plugs.$inferSelect,
-  "id" | "houseId" | "deviceId" | "name" | "applianceKind" | "applianceWatts" | "ratedCurrentA" | "online" | "lastSeenAt"
->;
-export type SensorSummary = Pick<typeof sensors.$inferSelect, "id" | "houseId" | "deviceId" | "name" | "online" | "lastSeenAt">;
+  "id" | "houseId" | "deviceId" | "name" | "applianceKind" | "applianceWatts" | "ratedCurrentA"
+> & { online: boolean; lastSeenAt: Date | null };
+export type SensorSummary = Pick<typeof sensors.$inferSelect, "id" | "houseId" | "deviceId" | "name"> & { online: boolean; lastSeenAt: Date | null };
 export type HouseOverview = House & { plugs: PlugSummary[]; sensors: SensorSummary[] };
 
 export async function getHousesBySite({ siteId }: { siteId: string }): Promise<House[]> {
@@ -35,10 +35,11 @@ export async function getHouseOverviewsBySite({ siteId }: { siteId: string }): P
         applianceKind: plugs.applianceKind,
         applianceWatts: plugs.applianceWatts,
         ratedCurrentA: plugs.ratedCurrentA,
-        online: plugs.online,
-        lastSeenAt: plugs.lastSeenAt,
+        online: sql<boolean>`COALESCE(${plugStates.online}, FALSE)`.mapWith(Boolean),
+        lastSeenAt: plugStates.lastSeenAt,
       })
       .from(plugs)
+      .leftJoin(plugStates, eq(plugStates.plugId, plugs.id))
       .where(and(eq(plugs.siteId, siteId), inArray(plugs.houseId, ids)))
       .orderBy(asc(plugs.name)),
     db
@@ -47,10 +48,11 @@ export async function getHouseOverviewsBySite({ siteId }: { siteId: string }): P
         houseId: sensors.houseId,
         deviceId: sensors.deviceId,
         name: sensors.name,
-        online: sensors.online,
-        lastSeenAt: sensors.lastSeenAt,
+        online: sql<boolean>`COALESCE(${sensorStates.online}, FALSE)`.mapWith(Boolean),
+        lastSeenAt: sensorStates.lastSeenAt,
       })
       .from(sensors)
+      .leftJoin(sensorStates, eq(sensorStates.sensorId, sensors.id))
       .where(and(eq(sensors.siteId, siteId), inArray(sensors.houseId, ids)))
       .orderBy(asc(sensors.name)),
   ]);

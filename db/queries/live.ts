@@ -1,7 +1,8 @@
 import "server-only";
 import { and, eq, gte, inArray, isNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { alerts, plugs, readings, sensors, switchEvents } from "@/db/schema";
+import { loadPlugStates } from "@/db/plug-states";
+import { alerts, plugs, readings, sensorStates, sensors, switchEvents } from "@/db/schema";
 
 export type SensorLive = {
   sensorId: string;
@@ -17,13 +18,13 @@ export type PlugLive = {
   houseId: string;
   online: boolean;
   lastSeenAt: Date | null;
-  /** From the switch log: the state the plug was last switched to (withdrawn switches aside), why, and since when. */
+  /** The state its last switch took it to (or is taking it to, unconfirmed), why, and since when. */
   on: boolean | null;
   cause: (typeof switchEvents.$inferSelect)["cause"] | null;
   since: Date | null;
   acknowledged: boolean | null;
-  /** From the controller: why the plug is kept as it is now (can differ from the last switch's cause). */
-  heldBy: (typeof plugs.$inferSelect)["heldBy"];
+  /** Why the controller keeps the plug as it is now (can differ from the last switch's cause). */
+  presentCause: (typeof switchEvents.$inferSelect)["cause"] | null;
 };
 
 export type SiteLive = {
@@ -40,11 +41,12 @@ export async function getSiteLive({ siteId, now = new Date() }: { siteId: string
   const db = getDb();
   const [sensorRows, plugRows, openAlerts] = await Promise.all([
     db
-      .select({ id: sensors.id, houseId: sensors.houseId, online: sensors.online, lastSeenAt: sensors.lastSeenAt })
+      .select({ id: sensors.id, houseId: sensors.houseId, online: sensorStates.online, lastSeenAt: sensorStates.lastSeenAt })
       .from(sensors)
+      .leftJoin(sensorStates, eq(sensorStates.sensorId, sensors.id))
       .where(eq(sensors.siteId, siteId)),
     db
-      .select({ id: plugs.id, houseId: plugs.houseId, online: plugs.online, lastSeenAt: plugs.lastSeenAt, heldBy: plugs.heldBy })
+      .select({ id: plugs.id, houseId: plugs.houseId })
       .from(plugs)
       .where(eq(plugs.siteId, siteId)),
     db
@@ -92,21 +94,16 @@ export async function getSiteLive({ siteId, now = new Date() }: { siteId: string
         )
     : [];
 
-  const lastSwitch = plugIds.length
-    ? await db
-        .select({
-          plugId: switchEvents.plugId,
-          toOn: switchEvents.toOn,
-          cause: switchEvents.cause,
-          at: switchEvents.at,
-          ackAt: switchEvents.ackAt,
-          id: switchEvents.id,
-        })
-        .from(switchEvents)
-        .where(
-          sql`${switchEvents.id} IN (SELECT MAX(id) FROM ${switchEvents} WHERE ${inArray(switchEvents.plugId, plugIds)} AND ${isNull(switchEvents.withdrawnAt)} GROUP BY plug_id)`,
-        )
-    : [];
+  const states = await loadPlugStates(db, plugIds);
+  // The causes of the switches the stored states point at: one indexed lookup each.
+  const commandIds = [...states.values()].flatMap((st) => [st.switchCommandId, st.pendingCommandId]).filter((id): id is string => id !== null);
+  const switchCauses = commandIds.length
+    ? new Map(
+        (await db.select({ commandId: switchEvents.commandId, cause: switchEvents.cause }).from(switchEvents).where(inArray(switchEvents.commandId, commandIds))).map(
+          (row) => [row.commandId, row.cause],
+        ),
+      )
+    : new Map<string, PlugLive["cause"]>();
 
   return {
     at: now,
@@ -116,7 +113,7 @@ export async function getSiteLive({ siteId, now = new Date() }: { siteId: string
       return {
         sensorId: s.id,
         houseId: s.houseId,
-        online: s.online,
+        online: s.online ?? false,
         lastSeenAt: s.lastSeenAt,
         latest: latest ? { tempC: latest.tempC, rh: latest.rh, at: latest.at } : null,
         last24h: range
@@ -124,19 +121,16 @@ export async function getSiteLive({ siteId, now = new Date() }: { siteId: string
           : null,
       };
     }),
-    plugs: plugRows.map((p) => {
-      const event = lastSwitch.find((e) => e.plugId === p.id);
-      return {
-        plugId: p.id,
-        houseId: p.houseId,
-        online: p.online,
-        lastSeenAt: p.lastSeenAt,
-        on: event ? event.toOn : null,
-        cause: event?.cause ?? null,
-        since: event ? (event.ackAt ?? event.at) : null,
-        acknowledged: event ? event.ackAt !== null : null,
-        heldBy: p.heldBy,
-      };
+    plugs: plugRows.map((p): PlugLive => {
+      const st = states.get(p.id);
+      const pending = st?.pendingCommandId && st.pendingOn !== null ? st : null;
+      const base = { plugId: p.id, houseId: p.houseId, online: st?.online ?? false, lastSeenAt: st?.lastSeenAt ?? null, presentCause: st?.presentCause ?? null };
+      // A switch on its way shows as what it is doing until the plug confirms it.
+      if (pending) {
+        return { ...base, on: pending.pendingOn, cause: switchCauses.get(pending.pendingCommandId!) ?? null, since: pending.pendingSince, acknowledged: false };
+      }
+      if (!st || st.on === null) return { ...base, on: null, cause: null, since: null, acknowledged: null };
+      return { ...base, on: st.on, cause: st.switchCommandId ? (switchCauses.get(st.switchCommandId) ?? null) : null, since: st.since, acknowledged: true };
     }),
     openAlerts,
   };

@@ -1,4 +1,4 @@
-import { APPLIANCE_KINDS, SWITCH_CAUSES } from "../../lib/domain";
+import { APPLIANCE_KINDS } from "../../lib/domain";
 import {
   boolean,
   decimal,
@@ -34,8 +34,6 @@ export const sensors = mysqlTable(
     /** MQTT device id: the `{device}` segment of its topics. */
     deviceId: varchar("device_id", { length: 64 }).notNull(),
     name: varchar("name", { length: 80 }).notNull(),
-    online: boolean("online").notNull().default(false),
-    lastSeenAt: instant("last_seen_at"),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
@@ -77,14 +75,6 @@ export const plugs = mysqlTable(
     minOffS: int("min_off_s").notNull().default(180),
     /** How long a command holds; past it the plug falls back to its own fail-safe. */
     leaseS: int("lease_s").notNull().default(900),
-    online: boolean("online").notNull().default(false),
-    lastSeenAt: instant("last_seen_at"),
-    /**
-     * Why the controller keeps the plug as it is now, from its latest decision. It can
-     * differ from the cause of the last switch: a plug that fell back to its fail-safe
-     * off and that its schedule also wants off is now kept off by the schedule.
-     */
-    heldBy: mysqlEnum("held_by", SWITCH_CAUSES),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },

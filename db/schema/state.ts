@@ -2,7 +2,7 @@
 // The controller is the only writer of these tables; the pages and a restarted
 // controller read a plug's present state from `plug_states` through one query
 // (db/plug-states.ts).
-import { boolean, int, mysqlEnum, mysqlTable, varchar } from "drizzle-orm/mysql-core";
+import { bigint, boolean, int, mysqlEnum, mysqlTable, varchar } from "drizzle-orm/mysql-core";
 import { SWITCH_CAUSES } from "../../lib/domain";
 import { instant, ref } from "./columns";
 import { plugs, sensors } from "./devices";
@@ -26,11 +26,11 @@ export const plugStates = mysqlTable("plug_states", {
   pendingSince: instant("pending_since"),
   /** The anti-short-cycle guard lets the wanted change through at this instant. */
   guardUntil: instant("guard_until"),
-  /** The plug's own last report. */
+  /** The plug's own last report; its time is the plug's own clock. */
   reportedOn: boolean("reported_on"),
   reportedAt: instant("reported_at"),
   watts: int("watts"),
-  wattHours: int("watt_hours"),
+  wattHours: bigint("watt_hours", { mode: "number", unsigned: true }),
   online: boolean("online").notNull().default(false),
   lastSeenAt: instant("last_seen_at"),
   updatedAt: instant("updated_at").notNull(),

@@ -129,7 +129,7 @@ describe("a switch replaced before the plug confirmed it", () => {
       5000,
       "change observed",
     );
-    expect(observed).toMatchObject({ fromOn: true, toOn: false, cause: "failsafe" });
+    expect(observed).toMatchObject({ fromOn: true, toOn: false, cause: "plug_fallback" });
     const after = (await heaterEvents()).slice(before.length);
     expect(after.map((e) => e.id)).toEqual([sent.id, observed.id]);
     expect(after[0]!.withdrawnAt).not.toBeNull();
@@ -138,8 +138,8 @@ describe("a switch replaced before the plug confirmed it", () => {
     const plug = await eventually(async () => {
       await controller.flush();
       const live = (await getSiteLive({ siteId: site.siteId })).plugs.find((p) => p.plugId === site.heaterId);
-      return live?.heldBy === "schedule" ? live : undefined;
+      return live?.presentCause === "schedule" ? live : undefined;
     }, 5000, "held off by the schedule");
-    expect(plug).toMatchObject({ on: false, cause: "failsafe", heldBy: "schedule", acknowledged: true });
+    expect(plug).toMatchObject({ on: false, cause: "plug_fallback", presentCause: "schedule", acknowledged: true });
   });
 });

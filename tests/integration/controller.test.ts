@@ -159,7 +159,7 @@ describe("the controller", () => {
     const held = await eventually(async () => {
       await controller.flush();
       const live = (await getSiteLive({ siteId: site.siteId })).plugs.find((p) => p.plugId === site.heaterId);
-      return live?.heldBy === "schedule" ? live : undefined;
+      return live?.presentCause === "schedule" ? live : undefined;
     }, 5000, "held on by the schedule after the override");
     expect(held).toMatchObject({ on: true, cause: "override", acknowledged: true });
     expect(heater.on).toBe(true);

@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { and, asc, count, eq } from "drizzle-orm";
 import pino from "pino";
 import { getDb } from "@/db/client";
-import { readingMinutes, readings, sensors } from "@/db/schema";
+import { readingMinutes, readings, sensorStates } from "@/db/schema";
 import { createReadingsStore, type ReadingsStore } from "@/controller/readings-store";
 import { createControlSite, type ControlSite } from "../support/control-site";
 
@@ -94,16 +94,16 @@ describe("the readings store", () => {
   });
 
   it("records when a device was last seen and whether it is online", async () => {
-    store.seen("sensors", site.sensorId, true, at(70, 0));
+    store.sensorSeen(site.sensorId, true, at(70, 0));
     await store.flush();
     const [row] = await getDb()
-      .select({ online: sensors.online, lastSeenAt: sensors.lastSeenAt })
-      .from(sensors)
-      .where(and(eq(sensors.id, site.sensorId)));
+      .select({ online: sensorStates.online, lastSeenAt: sensorStates.lastSeenAt })
+      .from(sensorStates)
+      .where(and(eq(sensorStates.sensorId, site.sensorId)));
     expect(row).toEqual({ online: true, lastSeenAt: at(70, 0) });
-    store.seen("sensors", site.sensorId, false, at(71, 0));
+    store.sensorSeen(site.sensorId, false, at(71, 0));
     await store.flush();
-    const [after] = await getDb().select({ online: sensors.online }).from(sensors).where(eq(sensors.id, site.sensorId));
+    const [after] = await getDb().select({ online: sensorStates.online }).from(sensorStates).where(eq(sensorStates.sensorId, site.sensorId));
     expect(after!.online).toBe(false);
   });
 });

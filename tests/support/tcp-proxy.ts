@@ -9,12 +9,15 @@ export type TcpProxy = {
   /** Lets the server's requests through but never its replies, then drops the connections:
    *  the server has done the work, the client cannot know it. */
   swallowReplies: () => void;
+  /** Passes everything until a client sends a statement matching `marker` (say, a COMMIT), then swallows from there. */
+  swallowRepliesFrom: (marker: RegExp) => void;
   restore: () => void;
   close: () => Promise<void>;
 };
 
 export async function startTcpProxy(target: { host: string; port: number }): Promise<TcpProxy> {
   let mode: "pass" | "cut" | "swallow" = "pass";
+  let swallowFrom: RegExp | null = null;
   const open = new Set<net.Socket>();
 
   const server = net.createServer((client) => {
@@ -31,6 +34,10 @@ export async function startTcpProxy(target: { host: string; port: number }): Pro
       s.on("error", () => undefined);
     }
     client.on("data", (chunk) => {
+      if (swallowFrom && mode === "pass" && swallowFrom.test(chunk.toString("latin1"))) {
+        mode = "swallow";
+        swallowFrom = null;
+      }
       if (mode !== "cut") upstream.write(chunk);
     });
     upstream.on("data", (chunk) => {
@@ -57,8 +64,12 @@ export async function startTcpProxy(target: { host: string; port: number }): Pro
     swallowReplies() {
       mode = "swallow";
     },
+    swallowRepliesFrom(marker) {
+      swallowFrom = marker;
+    },
     restore() {
       mode = "pass";
+      swallowFrom = null;
     },
     async close() {
       dropAll();

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { formatInsert, formatUpdate } from "@/db/bulk";
-import { plugs, readings, schedules, switchEvents } from "@/db/schema";
+import { plugStates, readings, schedules, switchEvents } from "@/db/schema";
 
 describe("formatInsert", () => {
   it("writes every row with the columns any row names, in UTC, NULL where a row has none", () => {
@@ -39,20 +39,20 @@ describe("formatInsert", () => {
 
 describe("formatUpdate", () => {
   it("sets each row's own values in one statement, by key, leaving other rows alone", () => {
-    const statement = formatUpdate(plugs, "id", [
-      { id: "p1", online: true, lastSeenAt: new Date("2026-12-02T10:00:00.500Z") },
-      { id: "p2", online: false },
+    const statement = formatUpdate(plugStates, "plugId", [
+      { plugId: "p1", online: true, lastSeenAt: new Date("2026-12-02T10:00:00.500Z") },
+      { plugId: "p2", online: false },
     ]);
     expect(statement).toBe(
-      "UPDATE `plugs` SET " +
-        "`online` = CASE `id` WHEN 'p1' THEN true WHEN 'p2' THEN false ELSE `online` END, " +
-        "`last_seen_at` = CASE `id` WHEN 'p1' THEN '2026-12-02 10:00:00.500' ELSE `last_seen_at` END " +
-        "WHERE `id` IN ('p1', 'p2')",
+      "UPDATE `plug_states` SET " +
+        "`online` = CASE `plug_id` WHEN 'p1' THEN true WHEN 'p2' THEN false ELSE `online` END, " +
+        "`last_seen_at` = CASE `plug_id` WHEN 'p1' THEN '2026-12-02 10:00:00.500' ELSE `last_seen_at` END " +
+        "WHERE `plug_id` IN ('p1', 'p2')",
     );
   });
 
   it("refuses a column the table does not have, and a row with nothing to set", () => {
-    expect(() => formatUpdate(plugs, "id", [{ id: "p1", colour: "red" } as never])).toThrow(/no column "colour"/);
-    expect(() => formatUpdate(plugs, "id", [{ id: "p1" }])).toThrow(/no column to set/);
+    expect(() => formatUpdate(plugStates, "plugId", [{ plugId: "p1", colour: "red" } as never])).toThrow(/no column "colour"/);
+    expect(() => formatUpdate(plugStates, "plugId", [{ plugId: "p1" }])).toThrow(/no column to set/);
   });
 });

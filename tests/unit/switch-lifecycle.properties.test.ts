@@ -273,7 +273,8 @@ const faultsArb = fc.record({
   maxDelayMs: fc.constantFrom(1, 500, 5000),
 });
 
-describe("the switch lifecycle, over random event sequences", () => {
+// Hundreds of runs each: well past the default 5 s on a busy 2-core machine.
+describe("the switch lifecycle, over random event sequences", { timeout: 120_000 }, () => {
   it("keeps the log a chain that follows the plug's own history, stores each switch once, and never takes a withdrawn switch as the state", () => {
     fc.assert(
       fc.property(fc.array(stepArb, { minLength: 1, maxLength: 60 }), faultsArb, fc.integer(), (steps, faults, seed) => {

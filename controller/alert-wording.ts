@@ -1,0 +1,34 @@
+// What the controller's alerts say, and which the decision raises or clears.
+import type { Decision } from "@/lib/control";
+import type { AlertSubject, Alerts } from "./alerts";
+import type { PlugRuntime } from "./registry";
+
+export function plugSubject(runtime: PlugRuntime): AlertSubject {
+  return { siteId: runtime.site.id, houseId: runtime.config.houseId, plugId: runtime.config.id };
+}
+
+/** Raises what the decision says is wrong with the plug, and clears what is no longer. */
+export function followDecisionAlerts(alerts: Alerts, runtime: PlugRuntime, decision: Decision) {
+  const subject = plugSubject(runtime);
+  const has = (a: Decision["alerts"][number]) => decision.alerts.includes(a);
+  const name = runtime.config.name;
+  const sensorSubject = runtime.config.sensorId
+    ? { siteId: runtime.site.id, houseId: runtime.config.houseId, sensorId: runtime.config.sensorId }
+    : subject;
+  if (has("sensor_quiet")) {
+    const action = decision.cause === "failsafe" ? "; it is on its quiet-sensor fail-safe" : "";
+    alerts.raise("sensor_quiet", sensorSubject, `No fresh reading for ${name}${action}.`);
+  } else if (runtime.config.sensorId && decision.readingTempC !== null) alerts.clear("sensor_quiet", sensorSubject);
+  if (has("overload")) alerts.raise("overload", subject, `${name}: the appliance draws more than the plug may carry for hours; kept off.`);
+  else alerts.clear("overload", subject);
+  if (has("too_hot")) alerts.raise("too_hot", subject, `${name}: at or above the house's high limit; heater kept off.`);
+  else alerts.clear("too_hot", subject);
+}
+
+export function raiseUnanswered(alerts: Alerts, runtime: PlugRuntime, attempts: number, commandId: string) {
+  alerts.raise("plug_unanswered", plugSubject(runtime), `${runtime.config.name} has not answered ${attempts} commands.`, { commandId });
+}
+
+export function clearUnanswered(alerts: Alerts, runtime: PlugRuntime) {
+  alerts.clear("plug_unanswered", plugSubject(runtime));
+}
