@@ -6,7 +6,7 @@ import net from "node:net";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 
-export const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../..");
+export const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 export const dataFolder = path.join(root, ".data");
 
 export function say(line: string) {

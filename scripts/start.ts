@@ -1,10 +1,10 @@
 // `npm start`: a private MariaDB, migrations, the demo, a build when the sources
 // changed, and the web app on http://127.0.0.1:3000. Ctrl-C stops all of it.
-import { DEV_DATABASE_FOLDER, LocalDatabaseError, devDatabasePort, startLocalDatabase, type LocalDatabase } from "../../db/local-server";
-import { migrateDatabase } from "../../db/migrate";
-import { connect } from "../../db/client";
-import { DEMO_MEMBERS, DEMO_SITE, seedDemo } from "../../db/seed";
-import { writeDemoHistory } from "../../fakes/demo-history";
+import { DEV_DATABASE_FOLDER, LocalDatabaseError, devDatabasePort, startLocalDatabase, type LocalDatabase } from "./local-server";
+import { migrateDatabase } from "../db/migrate";
+import { connect } from "../db/client";
+import { DEMO_MEMBERS, DEMO_SITE, seedDemo } from "../db/seed";
+import { writeDemoHistory } from "../fakes/demo-history";
 import { buildIsCurrent, markBuilt, sourceHash } from "./build-stamp";
 import { DEVICE_SECRETS_FILE, issueDemoDeviceSecrets } from "./demo-devices";
 import { bin, persistentSecret, portIsFree, run, say, startService, stopService, waitForHttp, waitForPort, type Service } from "./common";

@@ -1,8 +1,8 @@
 // A private MariaDB for `npm start` and `npm test`: Debian's mariadbd, started on
 // 127.0.0.1 with its own port and data folder, never the machine's own server.
 //
-//   tsx db/local-server.ts start   start it and print DATABASE_URL (Ctrl-C stops it)
-//   tsx db/local-server.ts stop    stop an instance left running for this folder
+//   tsx scripts/local-server.ts start   start it and print DATABASE_URL (Ctrl-C stops it)
+//   tsx scripts/local-server.ts stop    stop an instance left running for this folder
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import { closeSync, existsSync, mkdirSync, openSync, readFileSync, renameSync, rmSync, unlinkSync, writeFileSync } from "node:fs";
@@ -11,7 +11,7 @@ import os from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import mysql from "mysql2/promise";
-import { PackageError, ensureProgram, isRoot } from "../lib/stack/debian";
+import { PackageError, ensureProgram, isRoot } from "./debian";
 
 const projectRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 
@@ -320,7 +320,7 @@ if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.me
       await stopLocalDatabase(DEV_DATABASE_FOLDER);
       console.log("stopped.");
     } else {
-      console.error("usage: tsx db/local-server.ts start|stop");
+      console.error("usage: tsx scripts/local-server.ts start|stop");
       process.exit(2);
     }
   } catch (error) {

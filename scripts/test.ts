@@ -1,8 +1,8 @@
 // `npm test`: a private MariaDB with a fresh database, migrations, type-check, lint,
 // then the unit and integration tests against that database.
 import { randomBytes } from "node:crypto";
-import { LocalDatabaseError, TEST_DATABASE_FOLDER, startLocalDatabase, type LocalDatabase } from "../../db/local-server";
-import { migrateDatabase } from "../../db/migrate";
+import { LocalDatabaseError, TEST_DATABASE_FOLDER, startLocalDatabase, type LocalDatabase } from "./local-server";
+import { migrateDatabase } from "../db/migrate";
 import { bin, run, say } from "./common";
 import { ensureProgram } from "./debian";
 
