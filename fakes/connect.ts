@@ -69,6 +69,19 @@ export async function withTimeout<T>(work: Promise<T>, timeoutMs: number, what: 
   }
 }
 
+/** Publishes still on their way, so that a closing device lets them land before it disconnects. */
+export function inFlight() {
+  const pending = new Set<Promise<unknown>>();
+  return {
+    track<T>(work: Promise<T>): Promise<T> {
+      pending.add(work);
+      work.finally(() => pending.delete(work)).catch(() => undefined);
+      return work;
+    },
+    settled: () => Promise.allSettled([...pending]),
+  };
+}
+
 /** Ends the client whatever state it is in; a dead connection is not waited for. */
 export async function endClient(client: MqttClient, timeoutMs = 2000) {
   try {
