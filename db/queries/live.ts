@@ -2,6 +2,7 @@ import "server-only";
 import { and, eq, gte, inArray, isNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { alerts, plugs, readings, sensors, switchEvents } from "@/db/schema";
+import { getControllerStatus, type ControllerStatus } from "./controller-status";
 
 export type SensorLive = {
   sensorId: string;
@@ -31,6 +32,8 @@ export type SiteLive = {
   sensors: SensorLive[];
   plugs: PlugLive[];
   openAlerts: { id: number; kind: string; message: string; raisedAt: Date; houseId: string | null; plugId: string | null }[];
+  /** Whether a controller serving this site is switching its plugs. */
+  controller: ControllerStatus;
 };
 
 const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
@@ -38,7 +41,7 @@ const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
 /** What is happening in a site now: latest readings with their 24 h range, each plug's state. */
 export async function getSiteLive({ siteId, now = new Date() }: { siteId: string; now?: Date }): Promise<SiteLive> {
   const db = getDb();
-  const [sensorRows, plugRows, openAlerts] = await Promise.all([
+  const [sensorRows, plugRows, openAlerts, controller] = await Promise.all([
     db
       .select({ id: sensors.id, houseId: sensors.houseId, online: sensors.online, lastSeenAt: sensors.lastSeenAt })
       .from(sensors)
@@ -60,6 +63,7 @@ export async function getSiteLive({ siteId, now = new Date() }: { siteId: string
       .where(and(eq(alerts.siteId, siteId), isNull(alerts.clearedAt)))
       .orderBy(sql`${alerts.raisedAt} DESC`)
       .limit(50),
+    getControllerStatus({ siteId, now }),
   ]);
 
   const sensorIds = sensorRows.map((s) => s.id);
@@ -139,5 +143,6 @@ export async function getSiteLive({ siteId, now = new Date() }: { siteId: string
       };
     }),
     openAlerts,
+    controller,
   };
 }
