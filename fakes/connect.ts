@@ -25,6 +25,8 @@ export function setNoDelay(client: MqttClient) {
   stream.setNoDelay?.(true);
 }
 
+const BROKER_AWAY = new Set(["ECONNREFUSED", "ECONNRESET", "EPIPE", "ETIMEDOUT"]);
+
 export async function connectDevice(o: DeviceConnectOptions): Promise<MqttClient> {
   const client = await mqtt.connectAsync(o.url, {
     protocolVersion: 4,
@@ -47,7 +49,13 @@ export async function connectDevice(o: DeviceConnectOptions): Promise<MqttClient
     }
   };
   if (o.onMessage) client.on("message", o.onMessage);
-  client.on("error", (error) => o.logger.warn({ err: error }, "mqtt error"));
+  client.on("error", (error) => {
+    // The broker being away (the controller restarting) is a state, not a fault in
+    // this code: one line per attempt, no stack trace.
+    const code = (error as NodeJS.ErrnoException).code;
+    if (code && BROKER_AWAY.has(code)) o.logger.warn({ code }, "broker not reachable; mqtt.js will retry");
+    else o.logger.warn({ err: error }, "mqtt error");
+  });
   client.on("offline", () => o.logger.debug("mqtt offline; mqtt.js will reconnect"));
   client.on("connect", () => void setUp());
   await setUp();
@@ -67,6 +75,19 @@ export async function withTimeout<T>(work: Promise<T>, timeoutMs: number, what: 
   } finally {
     clearTimeout(timer);
   }
+}
+
+/** Publishes still on their way, so that a closing device lets them land before it disconnects. */
+export function inFlight() {
+  const pending = new Set<Promise<unknown>>();
+  return {
+    track<T>(work: Promise<T>): Promise<T> {
+      pending.add(work);
+      work.finally(() => pending.delete(work)).catch(() => undefined);
+      return work;
+    },
+    settled: () => Promise.allSettled([...pending]),
+  };
 }
 
 /** Ends the client whatever state it is in; a dead connection is not waited for. */

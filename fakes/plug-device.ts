@@ -4,7 +4,7 @@ import type { MqttClient } from "mqtt";
 import pino, { type Logger } from "pino";
 import { deviceUsername } from "../lib/mqtt/credentials";
 import { commandPayload, decode, plugTopic, type CommandPayload } from "../lib/mqtt/topics";
-import { connectDevice, endClient, withTimeout } from "./connect";
+import { connectDevice, endClient, inFlight, withTimeout } from "./connect";
 import {
   applyCommand,
   fallBack,
@@ -71,13 +71,15 @@ export async function startPlugDevice(o: PlugDeviceOptions): Promise<PlugDevice>
   let state = initialPlugState(config, now());
   let lastReportMs = -Infinity;
   let closing: Promise<void> | undefined;
+  const publishes = inFlight();
   // Set on the first connect, before connectDevice returns.
   let mq: MqttClient | undefined;
 
-  const publish = async (topic: string, payload: unknown, retain: boolean, timeoutMs = publishTimeoutMs) => {
-    if (!mq) return;
+  /** Nothing goes out once the plug is closing, apart from its goodbye (`farewell`). */
+  const publish = async (topic: string, payload: unknown, retain: boolean, timeoutMs = publishTimeoutMs, farewell = false) => {
+    if (!mq || (closing && !farewell)) return;
     try {
-      await withTimeout(mq.publishAsync(topic, JSON.stringify(payload), { qos: 1, retain }), timeoutMs, `publish to ${topic}`);
+      await publishes.track(withTimeout(mq.publishAsync(topic, JSON.stringify(payload), { qos: 1, retain }), timeoutMs, `publish to ${topic}`));
     } catch (error) {
       stats.publishFailures++;
       log.warn({ err: error, topic }, "publish failed");
@@ -110,7 +112,7 @@ export async function startPlugDevice(o: PlugDeviceOptions): Promise<PlugDevice>
     reconnectPeriod: o.reconnectPeriod,
     logger: log,
     onMessage: (topic, payload) => {
-      if (topic !== topics.command) return;
+      if (topic !== topics.command || closing) return;
       const decoded = decode(commandPayload, payload);
       if (!decoded.ok) {
         stats.malformed++;
@@ -159,8 +161,15 @@ export async function startPlugDevice(o: PlugDeviceOptions): Promise<PlugDevice>
     close() {
       closing ??= (async () => {
         clearInterval(timer);
+        // No more commands: one arriving after the disconnect would have its
+        // acknowledgement written to an ended socket ("write after end").
+        if (client.connected) {
+          await withTimeout(client.unsubscribeAsync(topics.command), Math.min(publishTimeoutMs, 1000), "unsubscribe").catch(() => undefined);
+        }
+        // Reports already on their way land first; nothing new starts (see publish).
+        await publishes.settled();
         // A clean disconnect does not fire the will: say so ourselves.
-        if (client.connected) await publish(topics.presence, "offline", true, Math.min(publishTimeoutMs, 1000));
+        if (client.connected) await publish(topics.presence, "offline", true, Math.min(publishTimeoutMs, 1000), true);
         await endClient(client);
       })();
       return closing;

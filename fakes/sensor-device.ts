@@ -4,7 +4,7 @@ import type { MqttClient } from "mqtt";
 import pino, { type Logger } from "pino";
 import { deviceUsername } from "../lib/mqtt/credentials";
 import { sensorTopic, type ReadingPayload } from "../lib/mqtt/topics";
-import { connectDevice, endClient, withTimeout } from "./connect";
+import { connectDevice, endClient, inFlight, withTimeout } from "./connect";
 import { seedFrom, sequence } from "./random";
 
 export type SensorSample = { tempC: number; rh: number };
@@ -62,6 +62,7 @@ export async function startSensorDevice(o: SensorDeviceOptions): Promise<SensorD
   const stats = { readings: 0, publishFailures: 0 };
   let lastMs = -Infinity;
   let closing: Promise<void> | undefined;
+  const publishes = inFlight();
 
   const client = await connectDevice({
     url: o.url,
@@ -81,7 +82,7 @@ export async function startSensorDevice(o: SensorDeviceOptions): Promise<SensorD
     const battery = (o.battery ?? 0.92) - ((o.batteryPerDay ?? 0.002) * (nowMs - startedMs)) / 86_400_000;
     const reading = toReading(sample, nowMs, Math.max(0.05, battery), noise);
     try {
-      await withTimeout(client.publishAsync(topic, JSON.stringify(reading), { qos: o.qos ?? 0 }), o.publishTimeoutMs ?? 5000, "reading");
+      await publishes.track(withTimeout(client.publishAsync(topic, JSON.stringify(reading), { qos: o.qos ?? 0 }), o.publishTimeoutMs ?? 5000, "reading"));
       stats.readings++;
     } catch (error) {
       stats.publishFailures++;
@@ -99,6 +100,7 @@ export async function startSensorDevice(o: SensorDeviceOptions): Promise<SensorD
     close() {
       closing ??= (async () => {
         clearInterval(timer);
+        await publishes.settled();
         await endClient(client);
       })();
       return closing;

@@ -212,6 +212,8 @@ export async function createSimulation(options: Partial<SimulationOptions> = {})
     close() {
       closing ??= (async () => {
         clearInterval(timer);
+        // A tick under way finishes before its devices go (its failure is logged where it runs).
+        await ticking?.catch(() => undefined);
         await Promise.allSettled([...plugs.values(), ...sensors.values()].map((d) => d.close()));
       })();
       return closing;

@@ -3,6 +3,7 @@ import { and, eq, gte, inArray, isNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { loadPlugStates } from "@/db/plug-states";
 import { alerts, plugs, readings, sensorStates, sensors, switchEvents } from "@/db/schema";
+import { getControllerStatus, type ControllerStatus } from "./controller-status";
 
 export type SensorLive = {
   sensorId: string;
@@ -32,6 +33,8 @@ export type SiteLive = {
   sensors: SensorLive[];
   plugs: PlugLive[];
   openAlerts: { id: number; kind: string; message: string; raisedAt: Date; houseId: string | null; plugId: string | null }[];
+  /** Whether a controller serving this site is switching its plugs. */
+  controller: ControllerStatus;
 };
 
 const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
@@ -39,7 +42,7 @@ const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
 /** What is happening in a site now: latest readings with their 24 h range, each plug's state. */
 export async function getSiteLive({ siteId, now = new Date() }: { siteId: string; now?: Date }): Promise<SiteLive> {
   const db = getDb();
-  const [sensorRows, plugRows, openAlerts] = await Promise.all([
+  const [sensorRows, plugRows, openAlerts, controller] = await Promise.all([
     db
       .select({ id: sensors.id, houseId: sensors.houseId, online: sensorStates.online, lastSeenAt: sensorStates.lastSeenAt })
       .from(sensors)
@@ -62,6 +65,7 @@ export async function getSiteLive({ siteId, now = new Date() }: { siteId: string
       .where(and(eq(alerts.siteId, siteId), isNull(alerts.clearedAt)))
       .orderBy(sql`${alerts.raisedAt} DESC`)
       .limit(50),
+    getControllerStatus({ siteId, now }),
   ]);
 
   const sensorIds = sensorRows.map((s) => s.id);
@@ -133,5 +137,6 @@ export async function getSiteLive({ siteId, now = new Date() }: { siteId: string
       return { ...base, on: st.on, cause: st.switchCommandId ? (switchCauses.get(st.switchCommandId) ?? null) : null, since: st.since, acknowledged: true };
     }),
     openAlerts,
+    controller,
   };
 }

@@ -7,7 +7,7 @@
 import { randomUUID } from "node:crypto";
 import pino from "pino";
 import { DateTime } from "luxon";
-import { TEST_DATABASE_FOLDER, startLocalDatabase } from "../../db/local-server";
+import { TEST_DATABASE_FOLDER, startLocalDatabase } from "../../scripts/local-server";
 import { migrateDatabase } from "../../db/migrate";
 import { connect } from "../../db/client";
 import { houses, plugs, sites } from "../../db/schema";

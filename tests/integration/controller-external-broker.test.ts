@@ -8,11 +8,11 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { asc, eq } from "drizzle-orm";
 import mqtt from "mqtt";
 import { getDb } from "@/db/client";
-import { freePort } from "@/db/local-server";
+import { freePort } from "@/scripts/local-server";
 import { switchEvents } from "@/db/schema";
 import { createController, type Controller } from "@/controller/controller";
 import { startPlugDevice, type PlugDevice } from "@/fakes/plug-device";
-import { findProgram } from "@/lib/stack/debian";
+import { findProgram } from "@/scripts/debian";
 import { plugTopic, sensorTopic } from "@/lib/mqtt/topics";
 import { createControlSite, eventually, testControllerOptions, type ControlSite } from "../support/control-site";
 

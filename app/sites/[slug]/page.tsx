@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import { HouseCard } from "@/components/houses/HouseCard";
+import { ControllerBanner } from "@/components/houses/ControllerBanner";
 import { SiteAlerts } from "@/components/houses/LiveAlerts";
 import { LiveSite } from "@/components/houses/LiveSite";
 import { toSiteLiveJson } from "@/components/houses/live-data";
@@ -32,6 +33,7 @@ export default async function HousesPage({ params }: Props) {
           <p className="mt-1 text-sm text-frost-600">
             {houses.length === 0 ? site.name : `${houses.length} ${houses.length === 1 ? "house" : "houses"} in ${site.name}`}
           </p>
+          <ControllerBanner />
           <SiteAlerts names={names} />
         </div>
 

@@ -1,12 +1,12 @@
 // Shared pieces of the `npm start` and `npm test` runners.
-import { spawn, type ChildProcess } from "node:child_process";
+import { spawn } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import net from "node:net";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 
-export const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../..");
+export const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 export const dataFolder = path.join(root, ".data");
 
 export function say(line: string) {
@@ -33,44 +33,6 @@ export function run(command: string, args: string[], env: NodeJS.ProcessEnv): Pr
     child.on("error", reject);
     child.on("exit", (code, signal) => resolve(code ?? (signal ? 128 : 1)));
   });
-}
-
-export type Service = { name: string; child: ChildProcess; exited: Promise<number> };
-
-/** Starts a long-running child in its own process group, its output prefixed with its name. */
-export function startService(name: string, command: string, args: string[], env: NodeJS.ProcessEnv): Service {
-  const child = spawn(command, args, { cwd: root, env, stdio: ["ignore", "pipe", "pipe"], detached: true });
-  const prefix = (stream: NodeJS.ReadableStream, out: NodeJS.WriteStream) => {
-    let buffered = "";
-    stream.on("data", (chunk: Buffer) => {
-      buffered += chunk.toString();
-      const lines = buffered.split("\n");
-      buffered = lines.pop() ?? "";
-      for (const line of lines) out.write(`[${name}] ${line}\n`);
-    });
-  };
-  prefix(child.stdout!, process.stdout);
-  prefix(child.stderr!, process.stderr);
-  const exited = new Promise<number>((resolve) => child.on("exit", (code, signal) => resolve(code ?? (signal ? 128 : 1))));
-  return { name, child, exited };
-}
-
-export async function stopService(service: Service, timeoutMs = 10_000) {
-  if (service.child.exitCode !== null || service.child.signalCode !== null) return;
-  try {
-    process.kill(-service.child.pid!, "SIGTERM");
-  } catch {
-    return;
-  }
-  const timer = setTimeout(() => {
-    try {
-      process.kill(-service.child.pid!, "SIGKILL");
-    } catch {
-      /* already gone */
-    }
-  }, timeoutMs);
-  await service.exited;
-  clearTimeout(timer);
 }
 
 export function portIsFree(port: number, host = "127.0.0.1"): Promise<boolean> {

@@ -1,13 +1,16 @@
 // `npm start`: a private MariaDB, migrations, the demo, a build when the sources
-// changed, and the web app on http://127.0.0.1:3000. Ctrl-C stops all of it.
-import { DEV_DATABASE_FOLDER, LocalDatabaseError, devDatabasePort, startLocalDatabase, type LocalDatabase } from "../../db/local-server";
-import { migrateDatabase } from "../../db/migrate";
-import { connect } from "../../db/client";
-import { DEMO_MEMBERS, DEMO_SITE, seedDemo } from "../../db/seed";
-import { writeDemoHistory } from "../../fakes/demo-history";
+// changed, and the web app on http://127.0.0.1:3000, with the controller and the
+// simulated devices. Each of those three is supervised: one that dies is restarted with
+// back-off while the others keep running (scripts/supervisor.ts). Ctrl-C stops all of it.
+import { DEV_DATABASE_FOLDER, LocalDatabaseError, devDatabasePort, startLocalDatabase, type LocalDatabase } from "./local-server";
+import { migrateDatabase } from "../db/migrate";
+import { connect } from "../db/client";
+import { DEMO_MEMBERS, DEMO_SITE, seedDemo } from "../db/seed";
+import { writeDemoHistory } from "../fakes/demo-history";
 import { buildIsCurrent, markBuilt, sourceHash } from "./build-stamp";
 import { DEVICE_SECRETS_FILE, issueDemoDeviceSecrets } from "./demo-devices";
-import { bin, persistentSecret, portIsFree, run, say, startService, stopService, waitForHttp, waitForPort, type Service } from "./common";
+import { bin, persistentSecret, portIsFree, root, run, say, waitForHttp, waitForPort } from "./common";
+import { superviseService, type Supervisor } from "./supervisor";
 
 const port = Number(process.env.PORT ?? 3000);
 const mqttPort = Number(process.env.CLOCHE_MQTT_PORT ?? 1886);
@@ -15,13 +18,14 @@ const host = "127.0.0.1";
 const url = process.env.BETTER_AUTH_URL ?? `http://${host}:${port}`;
 
 let database: LocalDatabase | undefined;
-const services: Service[] = [];
+const services: Supervisor[] = [];
 let stopping: Promise<void> | undefined;
 
 function shutdown(code: number) {
   stopping ??= (async () => {
     say("stopping…");
-    for (const service of [...services].reverse()) await stopService(service);
+    // The web app and the simulated devices go before the controller, whose broker they use.
+    for (const service of [...services].reverse()) await service.stop();
     await database?.stop();
     say("stopped.");
     process.exit(code);
@@ -87,28 +91,26 @@ async function main() {
   if (!process.env.MQTT_URL && !(await portIsFree(mqttPort, host))) {
     throw new LocalDatabaseError(`Port ${mqttPort} on ${host} (the MQTT broker) is in use. Choose another with CLOCHE_MQTT_PORT.`);
   }
-  const controller = startService("controller", bin("tsx"), ["controller/index.ts"], env);
-  services.push(controller);
+  // TypeScript entries run in one process each (`node --import tsx`, no tsx wrapper),
+  // so the pid the supervisor watches is the service itself.
+  const supervise = (name: string, command: string, args: string[], serviceEnv = env) =>
+    superviseService({ name, command, args, env: serviceEnv, cwd: root }).then((service) => {
+      services.push(service);
+      void service.gaveUp.then(() => {
+        if (services.every((s) => s.state === "given-up")) void shutdown(1);
+        else say(`${name} is not running now; the rest keeps going. Ctrl-C stops everything.`);
+      });
+      return service;
+    });
+  const controller = await supervise("controller", process.execPath, ["--import", "tsx", "controller/index.ts"]);
   // The simulated devices need the controller's broker to be listening when they start.
   const brokerUrl = new URL(env.CLOCHE_MQTT_URL!);
-  const brokerUp = await waitForPort(Number(brokerUrl.port || 1883), brokerUrl.hostname, 60_000, () => controller.child.exitCode === null);
+  const brokerUp = await waitForPort(Number(brokerUrl.port || 1883), brokerUrl.hostname, 60_000, () => controller.state !== "given-up");
   if (!brokerUp) throw new LocalDatabaseError(`the MQTT broker at ${env.CLOCHE_MQTT_URL} did not answer within 60 s.`);
-  services.push(startService("fakes", bin("tsx"), ["fakes/index.ts"], { ...env, MQTT_URL: env.CLOCHE_MQTT_URL }));
-  const web = startService("web", bin("next"), ["start", "--hostname", host, "--port", String(port)], env);
-  services.push(web);
-  for (const service of services) {
-    void service.exited.then(async (code) => {
-      // On Ctrl-C the whole process group gets SIGINT; a service can finish before our
-      // own handler has run. Give the signal a moment to land before calling it unexpected.
-      await new Promise((resolve) => setTimeout(resolve, 300));
-      if (!stopping) {
-        console.error(`[cloche] ${service.name} stopped unexpectedly (exit ${code}); stopping everything.`);
-        void shutdown(1);
-      }
-    });
-  }
+  await supervise("fakes", process.execPath, ["--import", "tsx", "fakes/index.ts"], { ...env, MQTT_URL: env.CLOCHE_MQTT_URL });
+  const web = await supervise("web", bin("next"), ["start", "--hostname", host, "--port", String(port)]);
 
-  const ready = await waitForHttp(`${url}/api/health`, 60_000, () => web.child.exitCode === null);
+  const ready = await waitForHttp(`${url}/api/health`, 60_000, () => web.state !== "given-up");
   if (!ready) throw new LocalDatabaseError("the web app did not answer /api/health within 60 s.");
 
   const width = Math.max(...DEMO_MEMBERS.map((m) => m.email.length));

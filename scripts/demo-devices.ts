@@ -3,9 +3,9 @@
 import { writeFileSync } from "node:fs";
 import path from "node:path";
 import { eq } from "drizzle-orm";
-import type { Database } from "../../db/client";
-import { issueDeviceCredential } from "../../db/device-credentials";
-import { plugs, sensors, sites } from "../../db/schema";
+import type { Database } from "../db/client";
+import { issueDeviceCredential } from "../db/device-credentials";
+import { plugs, sensors, sites } from "../db/schema";
 import { dataFolder } from "./common";
 
 export const DEVICE_SECRETS_FILE = path.join(dataFolder, "device-secrets.json");

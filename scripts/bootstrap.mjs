@@ -7,10 +7,10 @@ import { createHash } from "node:crypto";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 
-const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../..");
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const command = process.argv[2];
 if (command !== "start" && command !== "test") {
-  console.error("usage: node lib/stack/bootstrap.mjs start|test");
+  console.error("usage: node scripts/bootstrap.mjs start|test");
   process.exit(2);
 }
 
@@ -40,7 +40,7 @@ if (!existsSync(path.join(root, "node_modules", ".bin", "tsx")) || installed !==
 }
 
 const tsx = path.join(root, "node_modules", ".bin", "tsx");
-const child = spawn(tsx, [path.join(root, "lib", "stack", `${command}.ts`), ...process.argv.slice(3)], {
+const child = spawn(tsx, [path.join(root, "scripts", `${command}.ts`), ...process.argv.slice(3)], {
   cwd: root,
   stdio: "inherit",
 });

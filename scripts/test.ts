@@ -1,8 +1,8 @@
 // `npm test`: a private MariaDB with a fresh database, migrations, type-check, lint,
 // then the unit and integration tests against that database.
 import { randomBytes } from "node:crypto";
-import { LocalDatabaseError, TEST_DATABASE_FOLDER, startLocalDatabase, type LocalDatabase } from "../../db/local-server";
-import { migrateDatabase } from "../../db/migrate";
+import { LocalDatabaseError, TEST_DATABASE_FOLDER, startLocalDatabase, type LocalDatabase } from "./local-server";
+import { migrateDatabase } from "../db/migrate";
 import { bin, run, say } from "./common";
 import { ensureProgram } from "./debian";
 
@@ -12,7 +12,7 @@ async function main() {
   const began = Date.now();
   // The controller is also tested against an external broker: Debian's mosquitto.
   ensureProgram(["mosquitto"], "mosquitto", "mosquitto (MQTT broker for the external-broker test)", (line) => say(line));
-  database = await startLocalDatabase({ folder: TEST_DATABASE_FOLDER, port: 0, database: "cloche_test", fresh: true });
+  database = await startLocalDatabase({ folder: TEST_DATABASE_FOLDER, port: 0, database: "cloche_test", fresh: true, scratchDatabases: true });
   await migrateDatabase(database.url);
   say(`test database ready on 127.0.0.1:${database.port}`);
 
