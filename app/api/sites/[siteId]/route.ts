@@ -1,7 +1,7 @@
 import { updateSite } from "@/db/queries/sites";
-import { parseJsonBody, parseWith, route } from "@/lib/http";
+import { parseJsonBody, parseWith, route } from "@/lib/server/http";
 import { siteChangeSchema, siteParams } from "@/lib/schemas/site";
-import { requireMemberSite, requirePermission, requireUser } from "@/lib/session";
+import { requireMemberSite, requirePermission, requireUser } from "@/lib/server/session";
 
 type Params = { siteId: string };
 

@@ -1,8 +1,8 @@
 import { createHouse, getHouseOverviewsBySite } from "@/db/queries/houses";
-import { parseJsonBody, parseWith, route } from "@/lib/http";
+import { parseJsonBody, parseWith, route } from "@/lib/server/http";
 import { houseSchema } from "@/lib/schemas/house";
 import { siteParams } from "@/lib/schemas/site";
-import { requireMemberSite, requirePermission, requireUser } from "@/lib/session";
+import { requireMemberSite, requirePermission, requireUser } from "@/lib/server/session";
 
 type Params = { siteId: string };
 

@@ -1,7 +1,7 @@
 import { getSiteLive } from "@/db/queries/live";
-import { parseWith, route } from "@/lib/http";
+import { parseWith, route } from "@/lib/server/http";
 import { siteParams } from "@/lib/schemas/site";
-import { requireMemberSite, requirePermission, requireUser } from "@/lib/session";
+import { requireMemberSite, requirePermission, requireUser } from "@/lib/server/session";
 
 export const dynamic = "force-dynamic";
 

@@ -1,7 +1,7 @@
 import { getMembersOfSite } from "@/db/queries/sites";
-import { parseWith, route } from "@/lib/http";
+import { parseWith, route } from "@/lib/server/http";
 import { siteParams } from "@/lib/schemas/site";
-import { requireMemberSite, requirePermission, requireUser } from "@/lib/session";
+import { requireMemberSite, requirePermission, requireUser } from "@/lib/server/session";
 
 export const GET = route<{ siteId: string }>(async (request, params) => {
   const { siteId } = parseWith(siteParams, params);

@@ -1,7 +1,7 @@
 import { deleteHouse, requireHouse, updateHouse } from "@/db/queries/houses";
-import { parseJsonBody, parseWith, route } from "@/lib/http";
+import { parseJsonBody, parseWith, route } from "@/lib/server/http";
 import { houseChangeSchema, houseParams } from "@/lib/schemas/house";
-import { requireMemberSite, requirePermission, requireUser } from "@/lib/session";
+import { requireMemberSite, requirePermission, requireUser } from "@/lib/server/session";
 
 type Params = { siteId: string; houseId: string };
 

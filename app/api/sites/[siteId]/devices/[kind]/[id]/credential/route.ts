@@ -2,10 +2,10 @@ import { z } from "zod";
 import { issueDeviceCredential } from "@/db/device-credentials";
 import { getDb } from "@/db/client";
 import { getDeviceOfSite } from "@/db/queries/devices";
-import { env } from "@/lib/env";
-import { parseWith, route } from "@/lib/http";
+import { env } from "@/lib/server/env";
+import { parseWith, route } from "@/lib/server/http";
 import { recordId } from "@/lib/schemas/common";
-import { requireMemberSite, requirePermission, requireUser } from "@/lib/session";
+import { requireMemberSite, requirePermission, requireUser } from "@/lib/server/session";
 
 const params = z.object({
   siteId: recordId("site"),

@@ -1,8 +1,8 @@
 import "server-only";
 import mqtt, { type MqttClient } from "mqtt";
-import { env } from "@/lib/env";
-import { WEBAPP_USERNAME } from "./credentials";
-import { wakeTopic, type WakePayload } from "./topics";
+import { env } from "@/lib/server/env";
+import { WEBAPP_USERNAME } from "@/lib/mqtt/credentials";
+import { wakeTopic, type WakePayload } from "@/lib/mqtt/topics";
 
 // One connection per server process, opened on first use.
 const holder = globalThis as unknown as { __clocheWake?: MqttClient };
