@@ -1,6 +1,6 @@
 export { decide } from "./decide";
 export { describeCause, CAUSE_LABELS } from "./describe";
-export { currentDrawA, isOverloaded } from "./electrical";
+export { checkLoad, currentDrawA, type LoadCheck } from "./electrical";
 export { dutyCycleOn } from "./duty";
 export type { ActiveWindow, Alert, Cause, Decision, DecisionInput, PlugRules, WindowRule } from "./types";
 export { sharedRules, sharedWindow } from "./shared";
