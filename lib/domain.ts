@@ -107,4 +107,4 @@ export const ALERT_KIND_LABELS: Record<AlertKind, string> = {
 export const DEFAULT_STALE_AFTER_S = 600;
 
 /** A load that runs for hours may draw at most this percent of its plug's rating (sites.continuous_load_percent). */
-export const CONTINUOUS_LOAD_PERCENT = { default: 80, min: 50, max: 100 } as const;
+export const CONTINUOUS_LOAD_PERCENT = { default: 80, min: 50, max: 100, label: "Continuous-load margin" } as const;
