@@ -27,12 +27,17 @@ export function HouseCard({ house, timeZone, mainsVoltage, continuousLoadPercent
 
       <LiveReadings
         houseName={house.name}
-        sensors={house.sensors.map(({ id, name, lastSeenAt }) => ({ id, name, lastSeenAt }))}
+        sensors={house.sensors.map(({ id, name, lastSeenAt, staleAfterS }) => ({ id, name, lastSeenAt, staleAfterS }))}
       />
 
       <section aria-label={`Plugs in ${house.name}`}>
         <h3 className="mb-2 text-xs font-semibold uppercase tracking-wide text-frost-600">Plugs</h3>
-        <PlugList plugs={house.plugs} timeZone={timeZone} mainsVoltage={mainsVoltage} continuousLoadPercent={continuousLoadPercent} />
+        <PlugList
+          plugs={house.plugs}
+          timeZone={timeZone}
+          mainsVoltage={mainsVoltage}
+          continuousLoadPercent={continuousLoadPercent}
+        />
       </section>
 
       <section aria-label={`Sensors in ${house.name}`}>

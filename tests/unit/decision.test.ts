@@ -5,6 +5,8 @@ import {
   decide,
   describeCause,
   dutyCycleOn,
+  isReadingStale,
+  sensorStaleAfterS,
   type ActiveWindow,
   type Decision,
   type DecisionInput,
@@ -653,5 +655,26 @@ describe("reference checks", () => {
       decide({ rules, nowMs: NOW, reading: read(tempC), current: settled(false), override: null, window: null });
     expect(at(-1).on).toBe(true);
     expect(at(6).on).toBe(false);
+  });
+});
+
+describe("reading staleness, one rule for the decision and the pages", () => {
+  it("a reading exactly at the limit is fresh, a millisecond later it is stale, and NaN is stale", () => {
+    expect(isReadingStale(NOW - 600_000, NOW, 600)).toBe(false);
+    expect(isReadingStale(NOW - 600_001, NOW, 600)).toBe(true);
+    expect(isReadingStale(Number.NaN, NOW, 600)).toBe(true);
+    expect(isReadingStale(NOW, NOW, Number.NaN)).toBe(true);
+  });
+
+  it("a sensor is judged by the strictest plug that follows it, else the plugs' default", () => {
+    expect(sensorStaleAfterS([900, 300, 600])).toBe(300);
+    expect(sensorStaleAfterS([])).toBe(600);
+  });
+
+  it("the decision falls to the fail-safe exactly when the page calls the reading stale", () => {
+    for (const ageMs of [0, 599_999, 600_000, 600_001, 3_600_000]) {
+      const d = run({ reading: { tempC: 10, atMs: NOW - ageMs }, rules: { failsafe: "on" } });
+      expect(d.cause === "failsafe").toBe(isReadingStale(NOW - ageMs, NOW, heater.staleAfterS));
+    }
   });
 });
