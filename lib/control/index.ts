@@ -1,5 +1,5 @@
 export { decide } from "./decide";
-export { describeCause, CAUSE_LABELS } from "./describe";
+export { describeCause } from "./describe";
 export { checkLoad, currentDrawA, type LoadCheck } from "./electrical";
 export { dutyCycleOn } from "./duty";
 export type { ActiveWindow, Alert, Cause, Decision, DecisionInput, PlugRules, WindowRule } from "./types";

@@ -581,10 +581,10 @@ describe("anti-short-cycle guard", () => {
 describe("describeCause", () => {
   it.each([
     [{ cause: "schedule", reason: "at or below 8 °C low edge" }, "Schedule: at or below 8 °C low edge"],
-    [{ cause: "default", reason: "outside windows: off" }, "Outside windows: outside windows: off"],
-    [{ cause: "failsafe", reason: "sensor quiet: fail-safe on" }, "Sensor quiet, fail-safe: sensor quiet: fail-safe on"],
+    [{ cause: "default", reason: "outside windows: off" }, "Outside time windows: outside windows: off"],
+    [{ cause: "failsafe", reason: "sensor quiet: fail-safe on" }, "Quiet-sensor fail-safe: sensor quiet: fail-safe on"],
     [{ cause: "safety", reason: "at or above 35 °C high limit" }, "Safety cut-out: at or above 35 °C high limit"],
-    [{ cause: "override", reason: "override on" }, "Override: override on"],
+    [{ cause: "override", reason: "override on" }, "Manual override: override on"],
   ] as const)("%o → %s", (decision, text) => {
     expect(describeCause(decision)).toBe(text);
   });
