@@ -5,7 +5,7 @@ import { Wordmark } from "@/components/brand/Wordmark";
 import { NewSiteForm } from "@/components/site/NewSiteForm";
 import { Card } from "@/components/ui/Card";
 import { getSitesForUser } from "@/db/queries/sites";
-import { getSessionUser } from "@/lib/session";
+import { getSessionUser } from "@/lib/server/session";
 
 export default async function HomePage() {
   const user = await getSessionUser(await headers());

@@ -11,10 +11,9 @@ import {
   mayPublish,
   maySubscribe,
   parseDeviceUsername,
-  sameSecret,
-  verifyDeviceSecret,
   type Principal,
 } from "@/lib/mqtt/credentials";
+import { sameSecret, verifyDeviceSecret } from "@/lib/server/device-secrets";
 
 export type BrokerOptions = {
   host: string;

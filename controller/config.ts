@@ -16,7 +16,7 @@ import {
   sites,
 } from "@/db/schema";
 
-export type SiteConfig = { id: string; slug: string; timeZone: string; mainsVoltage: number };
+export type SiteConfig = { id: string; slug: string; timeZone: string; mainsVoltage: number; continuousLoadPercent: number };
 export type PlugConfig = typeof plugs.$inferSelect & { highLimitC: number };
 export type SensorConfig = Pick<typeof sensors.$inferSelect, "id" | "siteId" | "houseId" | "deviceId">;
 export type ScheduleConfig = {
@@ -55,7 +55,13 @@ export type Config = {
 
 export async function loadConfig(db: Database, now: Date, siteSlugs?: string[]): Promise<Config> {
   const siteRows = await db
-    .select({ id: sites.id, slug: sites.slug, timeZone: sites.timeZone, mainsVoltage: sites.mainsVoltage })
+    .select({
+      id: sites.id,
+      slug: sites.slug,
+      timeZone: sites.timeZone,
+      mainsVoltage: sites.mainsVoltage,
+      continuousLoadPercent: sites.continuousLoadPercent,
+    })
     .from(sites)
     .where(siteSlugs?.length ? inArray(sites.slug, siteSlugs) : undefined);
   if (siteRows.length === 0) return { sites: [], plugs: [], sensors: [], schedules: [], overrides: [] };
@@ -160,6 +166,7 @@ export function rulesOf(plug: PlugConfig, site: SiteConfig): PlugRules {
     applianceWatts: plug.applianceWatts,
     ratedCurrentA: plug.ratedCurrentA,
     mainsVoltage: site.mainsVoltage,
+    continuousLoadPercent: site.continuousLoadPercent,
     highLimitC: plug.highLimitC,
     failsafe: plug.failsafe,
     failsafeDutyPercent: plug.failsafeDutyPercent,

@@ -1,6 +1,6 @@
 import { drizzle, type MySql2Database } from "drizzle-orm/mysql2";
 import mysql from "mysql2/promise";
-import { env } from "@/lib/env";
+import { env } from "@/lib/server/env";
 import * as schema from "./schema";
 
 export type Database = MySql2Database<typeof schema>;

@@ -2,7 +2,8 @@
 import { and, eq, isNull } from "drizzle-orm";
 import type { Database } from "@/db/client";
 import { deviceCredentials } from "@/db/schema";
-import { deviceUsername, hashDeviceSecret, newDeviceSecret } from "@/lib/mqtt/credentials";
+import { deviceUsername } from "@/lib/mqtt/credentials";
+import { hashDeviceSecret, newDeviceSecret } from "@/lib/server/device-secrets";
 import type { DeviceKind } from "@/lib/mqtt/topics";
 
 export async function lookupDeviceSecret(db: Database, username: string): Promise<string | null> {

@@ -60,3 +60,51 @@ export const SWITCH_CAUSE_LABELS: Record<SwitchCause, string> = {
   plug_fallback: "Plug's own fall-back",
   resync: "Found changed",
 };
+
+/** What a time window asks of its plug: hold a temperature band, or simply on or off. */
+export const WINDOW_MODES = ["band", "on", "off"] as const;
+export type WindowMode = (typeof WINDOW_MODES)[number];
+
+export const WINDOW_MODE_LABELS: Record<WindowMode, string> = {
+  band: "Temperature band",
+  on: "On",
+  off: "Off",
+};
+
+/** What a plug does when the sensor its band is judged by goes quiet. */
+export const FAILSAFE_MODES = ["off", "on", "duty"] as const;
+export type FailsafeMode = (typeof FAILSAFE_MODES)[number];
+
+export const FAILSAFE_MODE_LABELS: Record<FailsafeMode, string> = {
+  off: "Off",
+  on: "On",
+  duty: "On and off in a duty cycle",
+};
+
+/** What a plug does outside its time windows. */
+export const OUTSIDE_WINDOW_MODES = ["off", "frost"] as const;
+export type OutsideWindowMode = (typeof OUTSIDE_WINDOW_MODES)[number];
+
+export const OUTSIDE_WINDOW_MODE_LABELS: Record<OutsideWindowMode, string> = {
+  off: "Off",
+  frost: "Frost protection band",
+};
+
+/** What an alert is about. */
+export const ALERT_KINDS = ["sensor_quiet", "plug_unanswered", "plug_offline", "too_hot", "too_cold", "overload"] as const;
+export type AlertKind = (typeof ALERT_KINDS)[number];
+
+export const ALERT_KIND_LABELS: Record<AlertKind, string> = {
+  sensor_quiet: "Sensor quiet",
+  plug_unanswered: "Plug not answering",
+  plug_offline: "Plug offline",
+  too_hot: "Too warm",
+  too_cold: "Too cold",
+  overload: "Plug overloaded",
+};
+
+/** A reading older than this counts as stale, unless a plug says otherwise (plugs.stale_after_s's default). */
+export const DEFAULT_STALE_AFTER_S = 600;
+
+/** A load that runs for hours may draw at most this percent of its plug's rating (sites.continuous_load_percent). */
+export const CONTINUOUS_LOAD_PERCENT = { default: 80, min: 50, max: 100, label: "Continuous-load margin" } as const;

@@ -8,7 +8,7 @@ import { Button } from "@/components/ui/Button";
 import { Field } from "@/components/ui/Field";
 import { Notice } from "@/components/ui/Notice";
 import { TextInput } from "@/components/ui/TextInput";
-import { authClient } from "@/lib/auth-client";
+import { authClient } from "@/lib/client/auth-client";
 import { signInSchema } from "@/lib/schemas/account";
 import { authErrorMessage } from "./auth-error-message";
 

@@ -11,7 +11,7 @@ import { Button } from "@/components/ui/Button";
 import { Field } from "@/components/ui/Field";
 import { Notice } from "@/components/ui/Notice";
 import { TextInput } from "@/components/ui/TextInput";
-import { authClient } from "@/lib/auth-client";
+import { authClient } from "@/lib/client/auth-client";
 import { signUpSchema, type SignUpInput } from "@/lib/schemas/account";
 import { authErrorMessage, fieldOfMessage } from "./auth-error-message";
 

@@ -7,9 +7,9 @@ import { LiveReadings } from "./LiveReadings";
 import { PlugList } from "./PlugList";
 import { SensorList } from "./SensorList";
 
-type HouseCardProps = { house: HouseOverview; timeZone: string; mainsVoltage: number };
+type HouseCardProps = { house: HouseOverview; timeZone: string; mainsVoltage: number; continuousLoadPercent: number };
 
-export function HouseCard({ house, timeZone, mainsVoltage }: HouseCardProps) {
+export function HouseCard({ house, timeZone, mainsVoltage, continuousLoadPercent }: HouseCardProps) {
   const area = house.lengthM * house.widthM;
   const headingId = `house-${house.id}`;
   return (
@@ -27,12 +27,17 @@ export function HouseCard({ house, timeZone, mainsVoltage }: HouseCardProps) {
 
       <LiveReadings
         houseName={house.name}
-        sensors={house.sensors.map(({ id, name, lastSeenAt }) => ({ id, name, lastSeenAt }))}
+        sensors={house.sensors.map(({ id, name, lastSeenAt, staleAfterS }) => ({ id, name, lastSeenAt, staleAfterS }))}
       />
 
       <section aria-label={`Plugs in ${house.name}`}>
         <h3 className="mb-2 text-xs font-semibold uppercase tracking-wide text-frost-600">Plugs</h3>
-        <PlugList plugs={house.plugs} timeZone={timeZone} mainsVoltage={mainsVoltage} />
+        <PlugList
+          plugs={house.plugs}
+          timeZone={timeZone}
+          mainsVoltage={mainsVoltage}
+          continuousLoadPercent={continuousLoadPercent}
+        />
       </section>
 
       <section aria-label={`Sensors in ${house.name}`}>

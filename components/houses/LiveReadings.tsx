@@ -1,14 +1,17 @@
 "use client";
 
+import { isReadingStale } from "@/lib/control/sensor";
 import { formatInstant } from "./format";
 import type { SensorLiveJson } from "./live-data";
 import { formatAgo, formatRh, formatTemp } from "./live-format";
 import { ReadingsPlaceholder } from "./ReadingsPlaceholder";
 import { useNow, useSiteLive } from "./use-site-live";
 
-const STALE_AFTER_MS = 10 * 60_000;
-
-type LiveReadingsProps = { houseName: string; sensors: { id: string; name: string; lastSeenAt: Date | null }[] };
+type LiveReadingsProps = {
+  houseName: string;
+  /** staleAfterS: how old a reading may be before it is shown as not recent (sensorStaleAfterS). */
+  sensors: { id: string; name: string; lastSeenAt: Date | null; staleAfterS: number }[];
+};
 
 /** Each sensor's latest temperature and humidity with its 24 h range, or an honest placeholder. */
 export function LiveReadings({ houseName, sensors }: LiveReadingsProps) {
@@ -32,6 +35,7 @@ export function LiveReadings({ houseName, sensors }: LiveReadingsProps) {
             label={sensors.length > 1 ? sensor.name : null}
             houseName={houseName}
             reading={reading}
+            staleAfterS={sensor.staleAfterS}
             now={now}
             timeZone={timeZone}
           />
@@ -49,14 +53,15 @@ type SensorReadingProps = {
   label: string | null;
   houseName: string;
   reading: SensorLiveJson;
+  staleAfterS: number;
   now: Date;
   timeZone: string;
 };
 
-function SensorReading({ label, houseName, reading, now, timeZone }: SensorReadingProps) {
+function SensorReading({ label, houseName, reading, staleAfterS, now, timeZone }: SensorReadingProps) {
   const latest = reading.latest!;
   const at = new Date(latest.at);
-  const stale = now.getTime() - at.getTime() > STALE_AFTER_MS;
+  const stale = isReadingStale(at.getTime(), now.getTime(), staleAfterS);
   const range = reading.last24h;
   const where = label ? `${houseName}, ${label}` : houseName;
 

@@ -5,9 +5,9 @@ import { LiveDeviceStatus } from "./LiveDeviceStatus";
 import { PlugLoadNote } from "./PlugLoadNote";
 import { PlugState } from "./PlugState";
 
-type PlugListProps = { plugs: PlugSummary[]; timeZone: string; mainsVoltage: number };
+type PlugListProps = { plugs: PlugSummary[]; timeZone: string; mainsVoltage: number; continuousLoadPercent: number };
 
-export function PlugList({ plugs, timeZone, mainsVoltage }: PlugListProps) {
+export function PlugList({ plugs, timeZone, mainsVoltage, continuousLoadPercent }: PlugListProps) {
   if (plugs.length === 0) return <p className="text-sm text-frost-600">No plugs in this house.</p>;
   return (
     <ul className="divide-y divide-frost-100">
@@ -21,7 +21,12 @@ export function PlugList({ plugs, timeZone, mainsVoltage }: PlugListProps) {
             </p>
             <LiveDeviceStatus device="plug" id={plug.id} online={plug.online} lastSeenAt={plug.lastSeenAt} timeZone={timeZone} />
           </div>
-          <PlugLoadNote watts={plug.applianceWatts} ratedCurrentA={plug.ratedCurrentA} mainsVoltage={mainsVoltage} />
+          <PlugLoadNote
+            watts={plug.applianceWatts}
+            ratedCurrentA={plug.ratedCurrentA}
+            mainsVoltage={mainsVoltage}
+            continuousLoadPercent={continuousLoadPercent}
+          />
         </li>
       ))}
     </ul>

@@ -1,4 +1,4 @@
-import { SWITCH_CAUSE_LABELS } from "@/lib/domain";
+import { ALERT_KIND_LABELS, SWITCH_CAUSE_LABELS, type AlertKind } from "@/lib/domain";
 import type { PlugLiveJson } from "./live-data";
 
 /** One decimal, with a true minus sign (frost readings are often below zero) and no "−0.0". */
@@ -46,13 +46,5 @@ export function causeWords(plug: Pick<PlugLiveJson, "cause">): string {
   return plug.cause === null ? "Not switched by Cloche yet" : SWITCH_CAUSE_LABELS[plug.cause];
 }
 
-const ALERT_WORDS: Record<string, string> = {
-  sensor_quiet: "Sensor quiet",
-  plug_unanswered: "Plug not answering",
-  plug_offline: "Plug offline",
-  too_hot: "Too warm",
-  too_cold: "Too cold",
-  overload: "Plug overloaded",
-};
-
-export const alertWords = (kind: string) => ALERT_WORDS[kind] ?? kind.replace(/_/g, " ").replace(/^./, (c) => c.toUpperCase());
+export const alertWords = (kind: string) =>
+  ALERT_KIND_LABELS[kind as AlertKind] ?? kind.replace(/_/g, " ").replace(/^./, (c) => c.toUpperCase());

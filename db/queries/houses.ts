@@ -3,8 +3,11 @@ import { and, asc, eq, inArray, sql } from "drizzle-orm";
 import { randomUUID } from "node:crypto";
 import { getDb } from "@/db/client";
 import { houses, plugStates, plugs, sensorStates, sensors } from "@/db/schema";
+import { sensorStaleAfterS } from "@/lib/control";
 import { AppError } from "@/lib/errors";
-import type { HouseChange, HouseInput } from "@/lib/schemas/house";
+import { groupBy } from "@/lib/group-by";
+import { changedHouseSchema, type HouseChange, type HouseInput } from "@/lib/schemas/house";
+import { parseWith } from "@/lib/server/http";
 import { recordAudit } from "./audit";
 
 export type House = typeof houses.$inferSelect;
@@ -12,7 +15,12 @@ export type PlugSummary = Pick<
   typeof plugs.$inferSelect,
   "id" | "houseId" | "deviceId" | "name" | "applianceKind" | "applianceWatts" | "ratedCurrentA"
 > & { online: boolean; lastSeenAt: Date | null };
-export type SensorSummary = Pick<typeof sensors.$inferSelect, "id" | "houseId" | "deviceId" | "name"> & { online: boolean; lastSeenAt: Date | null };
+export type SensorSummary = Pick<typeof sensors.$inferSelect, "id" | "houseId" | "deviceId" | "name"> & {
+  online: boolean;
+  lastSeenAt: Date | null;
+  /** How old its reading may be before the page calls it stale (sensorStaleAfterS). */
+  staleAfterS: number;
+};
 export type HouseOverview = House & { plugs: PlugSummary[]; sensors: SensorSummary[] };
 
 export async function getHousesBySite({ siteId }: { siteId: string }): Promise<House[]> {
@@ -37,6 +45,8 @@ export async function getHouseOverviewsBySite({ siteId }: { siteId: string }): P
         ratedCurrentA: plugs.ratedCurrentA,
         online: sql<boolean>`COALESCE(${plugStates.online}, FALSE)`.mapWith(Boolean),
         lastSeenAt: plugStates.lastSeenAt,
+        sensorId: plugs.sensorId,
+        staleAfterS: plugs.staleAfterS,
       })
       .from(plugs)
       .leftJoin(plugStates, eq(plugStates.plugId, plugs.id))
@@ -56,10 +66,16 @@ export async function getHouseOverviewsBySite({ siteId }: { siteId: string }): P
       .where(and(eq(sensors.siteId, siteId), inArray(sensors.houseId, ids)))
       .orderBy(asc(sensors.name)),
   ]);
+  const followerLimits = groupBy(plugRows, (p) => p.sensorId ?? "");
+  const sensorsWithLimits = sensorRows.map((s) => ({
+    ...s,
+    staleAfterS: sensorStaleAfterS((followerLimits.get(s.id) ?? []).map((p) => p.staleAfterS)),
+  }));
+  const plugSummaries: PlugSummary[] = plugRows.map(({ sensorId: _sensorId, staleAfterS: _staleAfterS, ...plug }) => plug);
   return houseRows.map((house) => ({
     ...house,
-    plugs: plugRows.filter((p) => p.houseId === house.id),
-    sensors: sensorRows.filter((s) => s.houseId === house.id),
+    plugs: plugSummaries.filter((p) => p.houseId === house.id),
+    sensors: sensorsWithLimits.filter((s) => s.houseId === house.id),
   }));
 }
 
@@ -88,12 +104,7 @@ export async function createHouse({ siteId, userId, input }: { siteId: string; u
 }
 
 export async function updateHouse({ house, userId, change }: { house: House; userId: string; change: HouseChange }) {
-  const next = { ...house, ...change };
-  if (next.ridgeHeightM < next.eaveHeightM) {
-    throw new AppError("bad_input", "ridgeHeightM: Ridge height must be at least the eave height", {
-      ridgeHeightM: "Ridge height must be at least the eave height",
-    });
-  }
+  parseWith(changedHouseSchema, { ...house, ...change });
   await getDb().transaction(async (tx) => {
     await tx.update(houses).set(change).where(eq(houses.id, house.id));
     const before = Object.fromEntries(Object.keys(change).map((k) => [k, house[k as keyof House]]));

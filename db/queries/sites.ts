@@ -16,6 +16,7 @@ export type SiteWithRole = {
   timeZone: string;
   currency: string;
   mainsVoltage: number;
+  continuousLoadPercent: number;
   role: Role;
 };
 
@@ -26,6 +27,7 @@ const siteColumns = {
   timeZone: sites.timeZone,
   currency: sites.currency,
   mainsVoltage: sites.mainsVoltage,
+  continuousLoadPercent: sites.continuousLoadPercent,
   role: memberships.role,
 };
 

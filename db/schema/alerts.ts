@@ -1,3 +1,4 @@
+import { ALERT_KINDS } from "../../lib/domain";
 import { bigint, index, json, mysqlEnum, mysqlTable, varchar } from "drizzle-orm/mysql-core";
 import { user } from "./auth";
 import { instant, ref } from "./columns";
@@ -5,14 +6,6 @@ import { plugs, sensors } from "./devices";
 import { houses } from "./houses";
 import { sites } from "./sites";
 
-export const ALERT_KINDS = [
-  "sensor_quiet",
-  "plug_unanswered",
-  "plug_offline",
-  "too_hot",
-  "too_cold",
-  "overload",
-] as const;
 
 export const alerts = mysqlTable(
   "alerts",

@@ -1,4 +1,4 @@
-import { APPLIANCE_KINDS } from "../../lib/domain";
+import { APPLIANCE_KINDS, DEFAULT_STALE_AFTER_S, FAILSAFE_MODES, OUTSIDE_WINDOW_MODES } from "../../lib/domain";
 import {
   boolean,
   decimal,
@@ -15,10 +15,6 @@ import { createdAt, id, instant, ref, updatedAt } from "./columns";
 import { houses } from "./houses";
 import { sites } from "./sites";
 
-export { APPLIANCE_KINDS };
-
-export const FAILSAFE_STATES = ["off", "on", "duty"] as const;
-export const OUTSIDE_WINDOW_DEFAULTS = ["off", "frost"] as const;
 
 /** A temperature/humidity sensor in a house. */
 export const sensors = mysqlTable(
@@ -61,13 +57,13 @@ export const plugs = mysqlTable(
     /** The sensor whose readings the plug's bands are judged against. */
     sensorId: ref("sensor_id").references(() => sensors.id, { onDelete: "set null" }),
     /** What the plug does when that sensor goes quiet. */
-    failsafe: mysqlEnum("failsafe", FAILSAFE_STATES).notNull().default("off"),
+    failsafe: mysqlEnum("failsafe", FAILSAFE_MODES).notNull().default("off"),
     /** With failsafe "duty": percent of each duty period spent on. */
     failsafeDutyPercent: tinyint("failsafe_duty_percent"),
     failsafeDutyPeriodS: smallint("failsafe_duty_period_s").notNull().default(1200),
     /** A reading older than this counts as stale. */
-    staleAfterS: int("stale_after_s").notNull().default(600),
-    outsideWindows: mysqlEnum("outside_windows", OUTSIDE_WINDOW_DEFAULTS).notNull().default("off"),
+    staleAfterS: int("stale_after_s").notNull().default(DEFAULT_STALE_AFTER_S),
+    outsideWindows: mysqlEnum("outside_windows", OUTSIDE_WINDOW_MODES).notNull().default("off"),
     frostLowC: decimal("frost_low_c", { precision: 4, scale: 1, mode: "number" }),
     frostHighC: decimal("frost_high_c", { precision: 4, scale: 1, mode: "number" }),
     /** Anti-short-cycle guard: least time on, and least time off, before a change. */

@@ -1,8 +1,7 @@
 import { date, decimal, index, mysqlEnum, mysqlTable, smallint, text, time, uniqueIndex, varchar } from "drizzle-orm/mysql-core";
+import { WINDOW_MODES } from "../../lib/domain";
 import { createdAt, id, ref, updatedAt } from "./columns";
 import { plugs } from "./devices";
-
-export const WINDOW_MODES = ["band", "on", "off"] as const;
 
 /** A plug's weekly plan, valid for a season, in the site's time zone. */
 export const schedules = mysqlTable(

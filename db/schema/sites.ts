@@ -1,4 +1,4 @@
-import { ROLES } from "../../lib/domain";
+import { CONTINUOUS_LOAD_PERCENT, ROLES } from "../../lib/domain";
 import { char, index, mysqlEnum, mysqlTable, uniqueIndex, varchar, smallint, tinyint } from "drizzle-orm/mysql-core";
 import { user } from "./auth";
 import { createdAt, id, ref, updatedAt } from "./columns";
@@ -16,7 +16,7 @@ export const sites = mysqlTable("sites", {
   currency: char("currency", { length: 3 }).notNull(),
   mainsVoltage: smallint("mains_voltage").notNull().default(230),
   /** A load that runs for hours may draw at most this percent of its plug's rating (80 % in NEC 210.19(A)/210.20(A)). */
-  continuousLoadPercent: tinyint("continuous_load_percent").notNull().default(80),
+  continuousLoadPercent: tinyint("continuous_load_percent").notNull().default(CONTINUOUS_LOAD_PERCENT.default),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
 });

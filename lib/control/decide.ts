@@ -1,7 +1,7 @@
 import { alertSet, OVERLOAD, SENSOR_QUIET, TOO_HOT } from "./alerts";
 import { bandSenseFor, edgeReached, edgeWantsOn, type BandSense } from "./band";
 import { dutyCycleOn } from "./duty";
-import { currentDrawA, isOverloaded } from "./electrical";
+import { checkLoad, type LoadCheck } from "./electrical";
 import { guardUntil } from "./guard";
 import { freshTempC } from "./sensor";
 import type { Cause, Decision, DecisionInput } from "./types";
@@ -35,8 +35,14 @@ export function decide(input: DecisionInput): Decision {
   // Written so that a NaN high limit cuts the heater out rather than letting it run.
   const tooHot = isHeater && tempC !== null && !(tempC < rules.highLimitC);
   if (tooHot) alerts |= TOO_HOT;
-  if (isOverloaded(rules.applianceWatts, rules.mainsVoltage, rules.ratedCurrentA)) {
-    return result(false, "safety", false, null, overloadReason(input), tempC, alerts | OVERLOAD);
+  const load = checkLoad({
+    watts: rules.applianceWatts,
+    mainsVoltage: rules.mainsVoltage,
+    ratedCurrentA: rules.ratedCurrentA,
+    continuousLoadPercent: rules.continuousLoadPercent,
+  });
+  if (!load.withinLimit) {
+    return result(false, "safety", false, null, overloadReason(load, rules.continuousLoadPercent), tempC, alerts | OVERLOAD);
   }
   if (tooHot) {
     return result(false, "safety", false, null, `at or above ${rules.highLimitC} °C high limit`, tempC, alerts);
@@ -163,10 +169,10 @@ function guarded(
   return result(current.on, cause, wanted, until, reason + waiting, tempC, alerts);
 }
 
-function overloadReason({ rules }: DecisionInput): string {
-  const amps = currentDrawA(rules.applianceWatts, rules.mainsVoltage);
-  if (!(rules.mainsVoltage > 0) || !Number.isFinite(amps)) return "appliance current unknown (check mains voltage): kept off";
-  return `appliance draws ${amps.toFixed(2)} A, over the plug's ${rules.ratedCurrentA} A rating`;
+function overloadReason(load: LoadCheck, percent: number): string {
+  if (!Number.isFinite(load.currentA)) return "appliance current unknown (check mains voltage): kept off";
+  if (!Number.isFinite(load.limitA) || !(percent > 0 && percent <= 100)) return "continuous-load margin unknown (check site settings): kept off";
+  return `appliance draws ${load.currentA.toFixed(2)} A, over the plug's ${load.limitA.toFixed(1)} A continuous limit (${percent} % of its rating)`;
 }
 
 // One constructor, so every decision has the same shape.

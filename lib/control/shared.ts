@@ -24,6 +24,7 @@ export function sharedRules(rules: PlugRules): PlugRules {
     rules.applianceWatts,
     rules.ratedCurrentA,
     rules.mainsVoltage,
+    rules.continuousLoadPercent,
     rules.highLimitC,
     rules.failsafe,
     rules.failsafeDutyPercent,

@@ -1,16 +1,16 @@
-import type { ApplianceKind } from "@/lib/domain";
+import type { AlertKind, ApplianceKind, FailsafeMode, OutsideWindowMode, WindowMode } from "@/lib/domain";
 
 /** What an evaluation of one plug can be driven by, strongest first. */
 export type Cause = "safety" | "override" | "schedule" | "default" | "failsafe";
 
-export type Alert = "sensor_quiet" | "overload" | "too_hot";
+export type Alert = Extract<AlertKind, "sensor_quiet" | "overload" | "too_hot">;
 
 /** What the time window in force asks of a plug (an occurrence of lib/schedule fits); null outside windows. */
 export type ActiveWindow = {
   window: WindowRule;
 } | null;
 
-export type WindowRule = { mode: "band" | "on" | "off"; lowC: number | null; highC: number | null };
+export type WindowRule = { mode: WindowMode; lowC: number | null; highC: number | null };
 
 /** A plug's settings, its house's high limit and its site's mains voltage, flattened for the hot path. */
 export type PlugRules = {
@@ -18,13 +18,15 @@ export type PlugRules = {
   applianceWatts: number;
   ratedCurrentA: number;
   mainsVoltage: number;
+  /** The site's margin for loads that run for hours: percent of the plug's rating they may draw. */
+  continuousLoadPercent: number;
   /** The house's safety cut-out: heaters are off at or above it. */
   highLimitC: number;
-  failsafe: "off" | "on" | "duty";
+  failsafe: FailsafeMode;
   failsafeDutyPercent: number | null;
   failsafeDutyPeriodS: number;
   staleAfterS: number;
-  outsideWindows: "off" | "frost";
+  outsideWindows: OutsideWindowMode;
   frostLowC: number | null;
   frostHighC: number | null;
   minOnS: number;

@@ -105,8 +105,11 @@ export const readingPayload = z.object({
 
 export const presencePayload = z.enum(["online", "offline"]);
 
+/** What changed; the topic names the site, and the controller reloads that site. */
+export const WAKE_REASONS = ["override", "schedule", "config", "plug", "site", "house", "device"] as const;
+
 export const wakePayload = z.object({
-  reason: z.enum(["override", "schedule", "config", "plug"]),
+  reason: z.enum(WAKE_REASONS),
   plug: z.string().regex(SEGMENT).optional(),
 });
 

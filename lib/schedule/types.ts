@@ -1,6 +1,6 @@
-import type { WINDOW_MODES } from "@/db/schema/schedules";
+import type { WindowMode } from "@/lib/domain";
 
-export type WindowMode = (typeof WINDOW_MODES)[number];
+export type { WindowMode };
 
 /** A recurring time window, as stored (db/schema/schedules.ts). */
 export type ScheduleWindow = {

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { GLAZINGS, HOUSE_KINDS } from "@/lib/domain";
+import { RIDGE_RULE, ridgeAboveEaves } from "@/lib/house-shape";
 import { decimalNumber, line, recordId } from "./common";
 
 const houseFields = z.object({
@@ -15,8 +16,7 @@ const houseFields = z.object({
   notes: z.string({ error: "Notes must be text" }).trim().max(2000, "Notes must be at most 2000 characters").optional(),
 });
 
-const ridgeAboveEaves = (h: { ridgeHeightM: number; eaveHeightM: number }) => h.ridgeHeightM >= h.eaveHeightM;
-const ridgeMessage = { path: ["ridgeHeightM"], message: "Ridge height must be at least the eave height" };
+const ridgeMessage = { path: [RIDGE_RULE.field], message: RIDGE_RULE.message };
 
 /** A new house; a typical leaky house and a 35 °C cut-out unless given. */
 export const houseSchema = houseFields
@@ -28,6 +28,11 @@ export const houseSchema = houseFields
 
 /** A change to a house: any of its fields, each under the same rules. */
 export const houseChangeSchema = houseFields.partial();
+
+/** A change merged with the stored house: the rules that tie fields together hold for the result. */
+export const changedHouseSchema = z
+  .object({ ridgeHeightM: z.number(), eaveHeightM: z.number() })
+  .refine(ridgeAboveEaves, ridgeMessage);
 
 export type HouseInput = z.infer<typeof houseSchema>;
 export type HouseChange = z.infer<typeof houseChangeSchema>;

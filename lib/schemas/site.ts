@@ -1,7 +1,10 @@
 import { z } from "zod";
+import { CONTINUOUS_LOAD_PERCENT } from "@/lib/domain";
 import { currency, line, recordId, timeZone } from "./common";
 
 export const siteParams = z.object({ siteId: recordId("site") });
+
+const { min, max, label } = CONTINUOUS_LOAD_PERCENT;
 
 export const siteChangeSchema = z
   .object({
@@ -13,7 +16,20 @@ export const siteChangeSchema = z
       .int("Mains voltage must be a whole number of volts")
       .min(100, "Mains voltage must be at least 100")
       .max(250, "Mains voltage must be at most 250"),
+    /** Percent of a plug's rating that a load running for hours may draw (80 in NEC 210.19(A)/210.20(A)). */
+    continuousLoadPercent: z
+      .number({ error: `${label} must be a number` })
+      .int(`${label} must be a whole percent`)
+      .min(min, `${label} must be at least ${min} %`)
+      .max(max, `${label} must be at most ${max} %`),
   })
   .partial();
 
 export type SiteChange = z.infer<typeof siteChangeSchema>;
+
+/** Settings the controller's decisions depend on; a change to one wakes it. */
+const CONTROL_FIELDS = ["timeZone", "mainsVoltage", "continuousLoadPercent"] as const satisfies (keyof SiteChange)[];
+
+export function changeAffectsControl(change: SiteChange): boolean {
+  return CONTROL_FIELDS.some((field) => change[field] !== undefined);
+}

@@ -7,6 +7,7 @@
 // Heat lost through the floor to the ground is left out, as those notes do: it is small
 // next to the glazing and the ground under a house is a store more than a sink.
 import type { Glazing, HouseKind } from "../domain";
+import { RIDGE_RULE, ridgeAboveEaves } from "../house-shape";
 
 /** 1 Btu/h·ft²·°F in W/m²·K. */
 export const BTU_H_FT2_F_IN_W_M2K = 5.678;
@@ -77,7 +78,7 @@ function check(house: HouseShape) {
     if (!Number.isFinite(v) || v <= 0) throw new HouseShapeError(`${name} must be a positive number of metres`);
   }
   if (!Number.isFinite(eaveHeightM) || eaveHeightM < 0) throw new HouseShapeError("eaveHeightM must be zero or more");
-  if (ridgeHeightM < eaveHeightM) throw new HouseShapeError("the ridge cannot be lower than the eaves");
+  if (!ridgeAboveEaves(house)) throw new HouseShapeError(RIDGE_RULE.message);
   if (!Number.isFinite(airChangesPerHour) || airChangesPerHour < 0) throw new HouseShapeError("airChangesPerHour must be zero or more");
 }
 

@@ -41,6 +41,7 @@ function decisionBench() {
       applianceWatts: 2000,
       ratedCurrentA: 13,
       mainsVoltage: 230,
+      continuousLoadPercent: 80,
       highLimitC: 32,
       failsafe: "duty",
       failsafeDutyPercent: 30,

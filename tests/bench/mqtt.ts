@@ -21,7 +21,8 @@ import { insertMany } from "../../db/bulk";
 import { deviceCredentials, houses, plugs, scheduleWindows, schedules, sensors, sites, switchEvents } from "../../db/schema";
 import { createController } from "../../controller/controller";
 import { setNoDelay } from "../../fakes/connect";
-import { CONTROLLER_USERNAME, deviceUsername, hashDeviceSecret, newDeviceSecret } from "../../lib/mqtt/credentials";
+import { CONTROLLER_USERNAME, deviceUsername } from "../../lib/mqtt/credentials";
+import { hashDeviceSecret, newDeviceSecret } from "../../lib/server/device-secrets";
 import { plugTopic, sensorTopic } from "../../lib/mqtt/topics";
 import { clock, type FleetReply, type FleetRequest } from "./fleet";
 

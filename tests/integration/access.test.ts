@@ -6,7 +6,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { and, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { auditLog, deviceCredentials, houses, sites } from "@/db/schema";
-import { verifyDeviceSecret } from "@/lib/mqtt/credentials";
+import { verifyDeviceSecret } from "@/lib/server/device-secrets";
 import { DEMO_MEMBERS, DEMO_SITE, demoId, seedDemo } from "@/db/seed";
 import * as sitesRoute from "@/app/api/sites/route";
 import * as siteRoute from "@/app/api/sites/[siteId]/route";

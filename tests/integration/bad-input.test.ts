@@ -56,6 +56,9 @@ const targets: Target[] = [
       { label: "out of range", body: { mainsVoltage: 9000 }, field: "mainsVoltage" },
       { label: "oversized string", body: { name: long }, field: "name" },
       { label: "empty name", body: { name: "   " }, field: "name" },
+      { label: "continuous-load margin below 50 %", body: { continuousLoadPercent: 40 }, field: "continuousLoadPercent" },
+      { label: "continuous-load margin over 100 %", body: { continuousLoadPercent: 101 }, field: "continuousLoadPercent" },
+      { label: "continuous-load margin not whole", body: { continuousLoadPercent: 82.5 }, field: "continuousLoadPercent" },
     ],
   },
   {

@@ -6,7 +6,8 @@ import mqtt, { type MqttClient } from "mqtt";
 import pino from "pino";
 import { createBroker, type Broker } from "@/controller/broker";
 import type { BrokerLink } from "@/controller/link";
-import { deviceUsername, hashDeviceSecret, newDeviceSecret } from "@/lib/mqtt/credentials";
+import { deviceUsername } from "@/lib/mqtt/credentials";
+import { hashDeviceSecret, newDeviceSecret } from "@/lib/server/device-secrets";
 import { plugTopic } from "@/lib/mqtt/topics";
 
 const SITE = "link-test";

@@ -1,10 +1,12 @@
 import { describe, expect, it } from "vitest";
 import {
+  checkLoad,
   currentDrawA,
   decide,
   describeCause,
   dutyCycleOn,
-  isOverloaded,
+  isReadingStale,
+  sensorStaleAfterS,
   type ActiveWindow,
   type Decision,
   type DecisionInput,
@@ -20,6 +22,7 @@ const heater: PlugRules = {
   applianceWatts: 2000,
   ratedCurrentA: 13,
   mainsVoltage: 230,
+  continuousLoadPercent: 80,
   highLimitC: 35,
   failsafe: "off",
   failsafeDutyPercent: null,
@@ -128,7 +131,25 @@ describe("safety cut-outs", () => {
       name: "an overloaded plug is off, even with an override on",
       rules: { applianceWatts: 3000 },
       override: { id: "o1", on: true },
-      expected: { on: false, cause: "safety", reason: "appliance draws 13.04 A, over the plug's 13 A rating", alerts: ["overload"] },
+      expected: { on: false, cause: "safety", reason: "appliance draws 13.04 A, over the plug's 10.4 A continuous limit (80 % of its rating)", alerts: ["overload"] },
+    },
+    {
+      name: "a heater within the plug's rating but over the continuous-load margin is off",
+      rules: { applianceWatts: 2500 },
+      window: windowOn,
+      expected: { on: false, cause: "safety", reason: "appliance draws 10.87 A, over the plug's 10.4 A continuous limit (80 % of its rating)", alerts: ["overload"] },
+    },
+    {
+      name: "the same heater runs where the site allows the full rating",
+      rules: { applianceWatts: 2500, continuousLoadPercent: 100 },
+      window: windowOn,
+      expected: { on: true, cause: "schedule", alerts: [] },
+    },
+    {
+      name: "a continuous-load margin that cannot be judged keeps the plug off",
+      rules: { continuousLoadPercent: Number.NaN },
+      window: windowOn,
+      expected: { on: false, cause: "safety", reason: "continuous-load margin unknown (check site settings): kept off", alerts: ["overload"] },
     },
     {
       name: "an overloaded plug is switched off at once, minimum on time or not",
@@ -570,24 +591,41 @@ describe("describeCause", () => {
 });
 
 describe("reference checks", () => {
-  // I = P / V, and socket ratings: REFERENCES.md "Electrical" (2 kW at 230 V ≈ 8.7 A;
+  // I = P / V and socket ratings: REFERENCES.md "Electrical" (2 kW at 230 V ≈ 8.7 A;
   // at 120 V ≈ 16.7 A; BS 1363 13 A; NEMA 5-15 15 A at 120 V; Schuko CEE 7/7 16 A).
+  // The 80 % limit for continuous loads (space heating counts): NEC 210.19(A)/210.20(A),
+  // the 125 % rule, as REFERENCES.md "Electrical" gives it.
   it.each([
-    { watts: 2000, volts: 230, amps: 8.7, ratedA: 13, plug: "BS 1363", overloaded: false },
-    { watts: 3000, volts: 230, amps: 13.04, ratedA: 13, plug: "BS 1363", overloaded: true },
-    { watts: 2000, volts: 120, amps: 16.7, ratedA: 15, plug: "NEMA 5-15", overloaded: true },
-    { watts: 3000, volts: 230, amps: 13.04, ratedA: 16, plug: "Schuko CEE 7/7", overloaded: false },
-    // Derived: 16 A × 230 V = 3680 W draws exactly the rating, which is not exceeding it.
-    { watts: 3680, volts: 230, amps: 16, ratedA: 16, plug: "Schuko CEE 7/7", overloaded: false },
-  ])("$watts W at $volts V ≈ $amps A on a $ratedA A $plug plug: overloaded $overloaded", (r) => {
+    { watts: 2000, volts: 120, ratedA: 15, plug: "NEMA 5-15", amps: 16.7, limitA: 12, within: false },
+    { watts: 1600, volts: 120, ratedA: 15, plug: "NEMA 5-15", amps: 13.3, limitA: 12, within: false },
+    { watts: 2000, volts: 230, ratedA: 13, plug: "BS 1363", amps: 8.7, limitA: 10.4, within: true },
+    { watts: 3000, volts: 230, ratedA: 13, plug: "BS 1363", amps: 13.0, limitA: 10.4, within: false },
+    // Derived from the same rule: 3 kW on a 16 A Schuko plug (13.0 A against 12.8 A).
+    { watts: 3000, volts: 230, ratedA: 16, plug: "Schuko CEE 7/7", amps: 13.0, limitA: 12.8, within: false },
+    // Derived: 80 % of 16 A × 230 V = 2944 W draws exactly the limit, which is within it.
+    { watts: 2944, volts: 230, ratedA: 16, plug: "Schuko CEE 7/7", amps: 12.8, limitA: 12.8, within: true },
+  ])("$watts W at $volts V ≈ $amps A on a $ratedA A $plug plug: continuous limit $limitA A, within $within", (r) => {
     expect(currentDrawA(r.watts, r.volts)).toBeCloseTo(r.amps, 1);
-    expect(isOverloaded(r.watts, r.volts, r.ratedA)).toBe(r.overloaded);
+    const load = checkLoad({ watts: r.watts, mainsVoltage: r.volts, ratedCurrentA: r.ratedA, continuousLoadPercent: 80 });
+    expect(load.currentA).toBeCloseTo(r.amps, 1);
+    expect(load.limitA).toBeCloseTo(r.limitA, 6);
+    expect(load.withinLimit).toBe(r.within);
     const decision = run({
-      rules: { applianceWatts: r.watts, mainsVoltage: r.volts, ratedCurrentA: r.ratedA },
+      rules: { applianceWatts: r.watts, mainsVoltage: r.volts, ratedCurrentA: r.ratedA, continuousLoadPercent: 80 },
       window: windowOn,
     });
-    expect(decision.on).toBe(!r.overloaded);
-    expect(decision.alerts.includes("overload")).toBe(r.overloaded);
+    expect(decision.on).toBe(r.within);
+    expect(decision.alerts.includes("overload")).toBe(!r.within);
+  });
+
+  it("the load check refuses what it cannot judge", () => {
+    const base = { watts: 1000, mainsVoltage: 230, ratedCurrentA: 13, continuousLoadPercent: 80 };
+    expect(checkLoad(base).withinLimit).toBe(true);
+    expect(checkLoad({ ...base, mainsVoltage: 0 }).withinLimit).toBe(false);
+    expect(checkLoad({ ...base, watts: Number.NaN }).withinLimit).toBe(false);
+    expect(checkLoad({ ...base, continuousLoadPercent: 0 }).withinLimit).toBe(false);
+    expect(checkLoad({ ...base, continuousLoadPercent: 120 }).withinLimit).toBe(false);
+    expect(checkLoad({ ...base, ratedCurrentA: Number.NaN }).withinLimit).toBe(false);
   });
 
   // On/off heating: off at the high edge, on at the low edge, the gap between is the
@@ -617,5 +655,26 @@ describe("reference checks", () => {
       decide({ rules, nowMs: NOW, reading: read(tempC), current: settled(false), override: null, window: null });
     expect(at(-1).on).toBe(true);
     expect(at(6).on).toBe(false);
+  });
+});
+
+describe("reading staleness, one rule for the decision and the pages", () => {
+  it("a reading exactly at the limit is fresh, a millisecond later it is stale, and NaN is stale", () => {
+    expect(isReadingStale(NOW - 600_000, NOW, 600)).toBe(false);
+    expect(isReadingStale(NOW - 600_001, NOW, 600)).toBe(true);
+    expect(isReadingStale(Number.NaN, NOW, 600)).toBe(true);
+    expect(isReadingStale(NOW, NOW, Number.NaN)).toBe(true);
+  });
+
+  it("a sensor is judged by the strictest plug that follows it, else the plugs' default", () => {
+    expect(sensorStaleAfterS([900, 300, 600])).toBe(300);
+    expect(sensorStaleAfterS([])).toBe(600);
+  });
+
+  it("the decision falls to the fail-safe exactly when the page calls the reading stale", () => {
+    for (const ageMs of [0, 599_999, 600_000, 600_001, 3_600_000]) {
+      const d = run({ reading: { tempC: 10, atMs: NOW - ageMs }, rules: { failsafe: "on" } });
+      expect(d.cause === "failsafe").toBe(isReadingStale(NOW - ageMs, NOW, heater.staleAfterS));
+    }
   });
 });

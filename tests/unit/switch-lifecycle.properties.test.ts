@@ -24,6 +24,7 @@ const rules: PlugRules = sharedRules({
   applianceWatts: 2000,
   ratedCurrentA: 13,
   mainsVoltage: 230,
+  continuousLoadPercent: 80,
   highLimitC: HIGH_LIMIT_C,
   failsafe: "on",
   failsafeDutyPercent: null,

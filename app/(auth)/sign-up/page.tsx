@@ -4,7 +4,7 @@ import Link from "next/link";
 import { redirect } from "next/navigation";
 import { AuthPanel } from "@/components/auth/AuthPanel";
 import { SignUpForm } from "@/components/auth/SignUpForm";
-import { getSessionUser } from "@/lib/session";
+import { getSessionUser } from "@/lib/server/session";
 
 export const metadata: Metadata = { title: "Create an account" };
 

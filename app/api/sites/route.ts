@@ -1,7 +1,7 @@
 import { createSiteForOwner, getSitesForUser } from "@/db/queries/sites";
-import { parseJsonBody, route } from "@/lib/http";
+import { parseJsonBody, route } from "@/lib/server/http";
 import { newSiteSchema } from "@/lib/schemas/account";
-import { requireUser } from "@/lib/session";
+import { requireUser } from "@/lib/server/session";
 
 /** The sites the signed-in person belongs to, with their role in each. */
 export const GET = route(async (request) => {

@@ -3,7 +3,7 @@ import { headers } from "next/headers";
 import { notFound, redirect } from "next/navigation";
 import { cache } from "react";
 import { getSiteForMember, getSitesForUser } from "@/db/queries/sites";
-import { getSessionUser } from "@/lib/session";
+import { getSessionUser } from "@/lib/server/session";
 
 /**
  * The signed-in person and the site of the URL, read once per request and shared by

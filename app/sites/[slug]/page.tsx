@@ -42,7 +42,13 @@ export default async function HousesPage({ params }: Props) {
         ) : (
           <div className="grid gap-4 md:grid-cols-2">
             {houses.map((house) => (
-              <HouseCard key={house.id} house={house} timeZone={site.timeZone} mainsVoltage={site.mainsVoltage} />
+              <HouseCard
+                key={house.id}
+                house={house}
+                timeZone={site.timeZone}
+                mainsVoltage={site.mainsVoltage}
+                continuousLoadPercent={site.continuousLoadPercent}
+              />
             ))}
           </div>
         )}

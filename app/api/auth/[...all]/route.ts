@@ -1,4 +1,4 @@
 import { toNextJsHandler } from "better-auth/next-js";
-import { getAuth } from "@/lib/auth";
+import { getAuth } from "@/lib/server/auth";
 
 export const { GET, POST } = toNextJsHandler((request: Request) => getAuth().handler(request));

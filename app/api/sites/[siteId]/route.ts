@@ -1,23 +1,17 @@
 import { updateSite } from "@/db/queries/sites";
-import { parseJsonBody, parseWith, route } from "@/lib/http";
-import { siteChangeSchema, siteParams } from "@/lib/schemas/site";
-import { requireMemberSite, requirePermission, requireUser } from "@/lib/session";
+import { siteRoute } from "@/lib/server/site-route";
+import { changeAffectsControl, siteChangeSchema, siteParams } from "@/lib/schemas/site";
 
-type Params = { siteId: string };
-
-export const GET = route<Params>(async (request, params) => {
-  const { siteId } = parseWith(siteParams, params);
-  const user = await requireUser(request.headers);
-  const site = await requireMemberSite(user, siteId);
-  requirePermission(site, "site.view");
-  return Response.json({ site });
+export const GET = siteRoute({
+  params: siteParams,
+  action: "site.view",
+  handle: async ({ site }) => Response.json({ site }),
 });
 
-export const PATCH = route<Params>(async (request, params) => {
-  const { siteId } = parseWith(siteParams, params);
-  const change = await parseJsonBody(request, siteChangeSchema);
-  const user = await requireUser(request.headers);
-  const site = await requireMemberSite(user, siteId);
-  requirePermission(site, "site.edit");
-  return Response.json({ site: await updateSite({ site, userId: user.id, change }) });
+export const PATCH = siteRoute({
+  params: siteParams,
+  body: siteChangeSchema,
+  action: "site.edit",
+  handle: async ({ site, user, body }) => Response.json({ site: await updateSite({ site, userId: user.id, change: body }) }),
+  wakes: ({ body }) => (changeAffectsControl(body) ? { reason: "site" } : null),
 });

@@ -1,25 +1,21 @@
 import { createHouse, getHouseOverviewsBySite } from "@/db/queries/houses";
-import { parseJsonBody, parseWith, route } from "@/lib/http";
+import { siteRoute } from "@/lib/server/site-route";
 import { houseSchema } from "@/lib/schemas/house";
 import { siteParams } from "@/lib/schemas/site";
-import { requireMemberSite, requirePermission, requireUser } from "@/lib/session";
 
-type Params = { siteId: string };
-
-export const GET = route<Params>(async (request, params) => {
-  const { siteId } = parseWith(siteParams, params);
-  const user = await requireUser(request.headers);
-  const site = await requireMemberSite(user, siteId);
-  requirePermission(site, "site.view");
-  return Response.json({ houses: await getHouseOverviewsBySite({ siteId }) });
+export const GET = siteRoute({
+  params: siteParams,
+  action: "site.view",
+  handle: async ({ site }) => Response.json({ houses: await getHouseOverviewsBySite({ siteId: site.id }) }),
 });
 
-export const POST = route<Params>(async (request, params) => {
-  const { siteId } = parseWith(siteParams, params);
-  const input = await parseJsonBody(request, houseSchema);
-  const user = await requireUser(request.headers);
-  const site = await requireMemberSite(user, siteId);
-  requirePermission(site, "houses.manage");
-  const house = await createHouse({ siteId, userId: user.id, input });
-  return Response.json({ house }, { status: 201 });
+export const POST = siteRoute({
+  params: siteParams,
+  body: houseSchema,
+  action: "houses.manage",
+  handle: async ({ site, user, body }) => {
+    const house = await createHouse({ siteId: site.id, userId: user.id, input: body });
+    return Response.json({ house }, { status: 201 });
+  },
+  wakes: { reason: "house" },
 });

@@ -1,12 +1,9 @@
 import { getMembersOfSite } from "@/db/queries/sites";
-import { parseWith, route } from "@/lib/http";
+import { siteRoute } from "@/lib/server/site-route";
 import { siteParams } from "@/lib/schemas/site";
-import { requireMemberSite, requirePermission, requireUser } from "@/lib/session";
 
-export const GET = route<{ siteId: string }>(async (request, params) => {
-  const { siteId } = parseWith(siteParams, params);
-  const user = await requireUser(request.headers);
-  const site = await requireMemberSite(user, siteId);
-  requirePermission(site, "members.view");
-  return Response.json({ members: await getMembersOfSite({ siteId }) });
+export const GET = siteRoute({
+  params: siteParams,
+  action: "members.view",
+  handle: async ({ site }) => Response.json({ members: await getMembersOfSite({ siteId: site.id }) }),
 });

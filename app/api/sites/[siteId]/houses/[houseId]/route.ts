@@ -1,35 +1,34 @@
 import { deleteHouse, requireHouse, updateHouse } from "@/db/queries/houses";
-import { parseJsonBody, parseWith, route } from "@/lib/http";
+import { siteRoute } from "@/lib/server/site-route";
 import { houseChangeSchema, houseParams } from "@/lib/schemas/house";
-import { requireMemberSite, requirePermission, requireUser } from "@/lib/session";
 
-type Params = { siteId: string; houseId: string };
+const loadHouse = ({ site, params }: { site: { id: string }; params: { houseId: string } }) =>
+  requireHouse({ siteId: site.id, houseId: params.houseId });
 
-export const GET = route<Params>(async (request, params) => {
-  const { siteId, houseId } = parseWith(houseParams, params);
-  const user = await requireUser(request.headers);
-  const site = await requireMemberSite(user, siteId);
-  const house = await requireHouse({ siteId: site.id, houseId });
-  requirePermission(site, "site.view");
-  return Response.json({ house });
+export const GET = siteRoute({
+  params: houseParams,
+  action: "site.view",
+  load: loadHouse,
+  handle: async ({ loaded: house }) => Response.json({ house }),
 });
 
-export const PATCH = route<Params>(async (request, params) => {
-  const { siteId, houseId } = parseWith(houseParams, params);
-  const change = await parseJsonBody(request, houseChangeSchema);
-  const user = await requireUser(request.headers);
-  const site = await requireMemberSite(user, siteId);
-  const house = await requireHouse({ siteId: site.id, houseId });
-  requirePermission(site, "houses.manage");
-  return Response.json({ house: await updateHouse({ house, userId: user.id, change }) });
+export const PATCH = siteRoute({
+  params: houseParams,
+  body: houseChangeSchema,
+  action: "houses.manage",
+  load: loadHouse,
+  handle: async ({ loaded: house, user, body }) =>
+    Response.json({ house: await updateHouse({ house, userId: user.id, change: body }) }),
+  wakes: { reason: "house" },
 });
 
-export const DELETE = route<Params>(async (request, params) => {
-  const { siteId, houseId } = parseWith(houseParams, params);
-  const user = await requireUser(request.headers);
-  const site = await requireMemberSite(user, siteId);
-  const house = await requireHouse({ siteId: site.id, houseId });
-  requirePermission(site, "houses.manage");
-  await deleteHouse({ house, userId: user.id });
-  return new Response(null, { status: 204 });
+export const DELETE = siteRoute({
+  params: houseParams,
+  action: "houses.manage",
+  load: loadHouse,
+  handle: async ({ loaded: house, user }) => {
+    await deleteHouse({ house, userId: user.id });
+    return new Response(null, { status: 204 });
+  },
+  wakes: { reason: "house" },
 });

@@ -9,7 +9,7 @@ import * as schema from "@/db/schema";
 import { createSiteForOwner } from "@/db/queries/sites";
 import { env, trustedOrigins } from "./env";
 import { firstIssue } from "./http";
-import { newSiteSchema } from "./schemas/account";
+import { newSiteSchema } from "@/lib/schemas/account";
 
 /** Site fields a sign-up may carry; API clients that leave them out get sensible defaults. */
 const signUpSiteSchema = newSiteSchema.partial();

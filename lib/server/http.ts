@@ -1,5 +1,5 @@
 import type { z } from "zod";
-import { AppError, errorBody, toAppError, type FieldErrors } from "./errors";
+import { AppError, errorBody, toAppError, type FieldErrors } from "@/lib/errors";
 
 const MAX_BODY_BYTES = 64 * 1024;
 

@@ -1,8 +1,8 @@
 import "server-only";
 import { getSiteForMember, type SiteWithRole } from "@/db/queries/sites";
 import { getAuth } from "./auth";
-import { AppError } from "./errors";
-import { assertCan, type Action } from "./permissions";
+import { AppError } from "@/lib/errors";
+import { assertCan, type Action } from "@/lib/permissions";
 
 export type SessionUser = { id: string; name: string; email: string };
 
