@@ -221,13 +221,20 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
         const runtime = registry.plug(site, device);
         if (!runtime) return "unknown_plug";
         const plugTimeMs = Date.parse(report.at);
-        store.plugSeen(runtime.config.id, true, new Date(nowMs), { on: report.on, at: new Date(plugTimeMs), watts: report.watts ?? null, wh: report.wh ?? null });
+        switchLog.present(runtime.config.id, {
+          online: true,
+          lastSeenAt: new Date(nowMs),
+          reportedOn: report.on,
+          reportedAt: new Date(plugTimeMs),
+          watts: report.watts === undefined || report.watts === null ? null : Math.round(report.watts),
+          wattHours: report.wh === undefined || report.wh === null ? null : Math.round(report.wh),
+        });
         switching.report(runtime, { on: report.on, cmd: report.cmd ?? null, plugTimeMs }, nowMs);
       },
       presence(site, device, online, nowMs) {
         const runtime = registry.plug(site, device);
         if (!runtime) return "unknown_plug";
-        store.plugSeen(runtime.config.id, online, new Date(nowMs));
+        switchLog.present(runtime.config.id, { online, lastSeenAt: new Date(nowMs) });
         switching.presence(runtime, online, nowMs);
       },
       wake(site) {

@@ -1,11 +1,12 @@
-// Readings, device presence and each plug's last report, written in batches. A
+// Readings and sensor presence, written in batches (a plug's presence goes with its
+// present state, through the switch log). A
 // sensor reports every few seconds, so rows are gathered and inserted many at a time;
 // raw rows are kept for a set time and summarised per minute for the long run.
 import { and, gte, lt, sql } from "drizzle-orm";
 import type { Logger } from "pino";
 import type { Database } from "@/db/client";
-import { plugStates, readingMinutes, readings, sensorStates } from "@/db/schema";
-import { insertMany, updateMany } from "@/db/bulk";
+import { readingMinutes, readings, sensorStates } from "@/db/schema";
+import { insertMany, upsertMany } from "@/db/bulk";
 
 export type ReadingRow = typeof readings.$inferInsert;
 
@@ -20,13 +21,11 @@ export type ReadingsStoreOptions = {
   now: () => number;
 };
 
-type PlugSeen = Partial<Pick<typeof plugStates.$inferSelect, "online" | "lastSeenAt" | "reportedOn" | "reportedAt" | "watts" | "wattHours">>;
 type SensorSeen = Pick<typeof sensorStates.$inferSelect, "online" | "lastSeenAt">;
 
 export function createReadingsStore(options: ReadingsStoreOptions) {
   const { db, logger } = options;
   let queue: ReadingRow[] = [];
-  const plugsSeen = new Map<string, PlugSeen>();
   const sensorsSeen = new Map<string, SensorSeen>();
   let running: Promise<void> | undefined;
   let retryAt = 0;
@@ -45,25 +44,16 @@ export function createReadingsStore(options: ReadingsStoreOptions) {
       for (const row of batch) earliestWritten = Math.min(earliestWritten, row.at.getTime());
       queue = queue.slice(batch.length);
     }
-    // Presence and reports: the rows made when missing, then one UPDATE per table.
+    // Sensor presence: one upsert for everything heard since the last write.
     const updatedAt = new Date();
-    const plugsNow = [...plugsSeen];
     const sensorsNow = [...sensorsSeen];
-    if (plugsNow.length > 0) {
-      await insertMany(db, plugStates, plugsNow.map(([plugId]) => ({ plugId, updatedAt })), { keep: true });
-      await updateMany(db, plugStates, "plugId", plugsNow.map(([plugId, seen]) => ({ plugId, ...seen, updatedAt })));
-    }
-    if (sensorsNow.length > 0) {
-      await insertMany(db, sensorStates, sensorsNow.map(([sensorId]) => ({ sensorId, updatedAt })), { keep: true });
-      await updateMany(db, sensorStates, "sensorId", sensorsNow.map(([sensorId, seen]) => ({ sensorId, ...seen, updatedAt })));
-    }
-    for (const [id, seen] of plugsNow) if (plugsSeen.get(id) === seen) plugsSeen.delete(id);
+    await upsertMany(db, sensorStates, sensorsNow.map(([sensorId, seen]) => ({ sensorId, ...seen, updatedAt })));
     for (const [id, seen] of sensorsNow) if (sensorsSeen.get(id) === seen) sensorsSeen.delete(id);
   }
 
   function flush(force = false): Promise<void> {
     if (running) return running;
-    if ((queue.length === 0 && plugsSeen.size === 0 && sensorsSeen.size === 0) || (!force && Date.now() < retryAt)) return Promise.resolve();
+    if ((queue.length === 0 && sensorsSeen.size === 0) || (!force && Date.now() < retryAt)) return Promise.resolve();
     running = write()
       .then(() => {
         failures = 0;
@@ -142,12 +132,6 @@ export function createReadingsStore(options: ReadingsStoreOptions) {
     },
     sensorSeen(sensorId: string, online: boolean, at: Date) {
       sensorsSeen.set(sensorId, { online, lastSeenAt: at });
-    },
-    /** A plug was heard: its presence, and its report when it sent one. */
-    plugSeen(plugId: string, online: boolean, at: Date, report?: { on: boolean; at: Date; watts: number | null; wh: number | null }) {
-      const seen: PlugSeen = { ...plugsSeen.get(plugId), online, lastSeenAt: at };
-      if (report) Object.assign(seen, { reportedOn: report.on, reportedAt: report.at, watts: report.watts, wattHours: report.wh === null ? null : Math.round(report.wh) });
-      plugsSeen.set(plugId, seen);
     },
     flush: async () => {
       await running;

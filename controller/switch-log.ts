@@ -1,4 +1,5 @@
-// The switch log and each plug's present state, written in batches. A switch is
+// The switch log and each plug's present state (plug_states: the lifecycle's state,
+// presence, the last report), written in batches. A switch is
 // recorded when its command goes out and completed when the plug acknowledges it, or
 // withdrawn when a newer decision replaces it first; all are upserts keyed by the
 // command id, so a row is never written twice. The present state (plug_states) goes
@@ -8,15 +9,12 @@
 import type { Logger } from "pino";
 import type { Database } from "@/db/client";
 import { plugStates, switchEvents } from "@/db/schema";
-import { insertMany, updateMany } from "@/db/bulk";
+import { insertMany, updateMany, upsertMany } from "@/db/bulk";
 
 export type SwitchRow = typeof switchEvents.$inferInsert & { commandId: string };
 
-/** The columns of plug_states that follow the switch lifecycle. */
-export type PresentState = Pick<
-  typeof plugStates.$inferSelect,
-  "on" | "since" | "switchCommandId" | "presentCause" | "pendingOn" | "pendingCommandId" | "pendingSince" | "guardUntil"
->;
+/** Columns of a plug's row in plug_states: what the lifecycle keeps, presence, its last report. */
+export type PresentState = Partial<Omit<typeof plugStates.$inferSelect, "plugId" | "updatedAt">>;
 
 export type SwitchLogOptions = {
   db: Database;
@@ -30,7 +28,7 @@ export type SwitchLog = {
   acknowledge: (commandId: string, ackAt: Date, latencyMs: number) => void;
   /** A newer decision replaced this switch before the plug confirmed it. */
   withdraw: (commandId: string, at: Date) => void;
-  /** The plug's present state now; written with the log rows recorded before it. */
+  /** Columns of the plug's present state as they are now; written with the log rows recorded before them. */
   present: (plugId: string, state: PresentState) => void;
   /** Writes what is waiting now (ignoring any back-off). */
   flush: () => Promise<void>;
@@ -70,11 +68,8 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
       }
       // Acknowledgements and withdrawals of rows already written: one UPDATE for all.
       await updateMany(tx, switchEvents, "commandId", acked.map(([commandId, ack]) => ({ commandId, ...ack })));
-      if (states.length > 0) {
-        const updatedAt = new Date();
-        await insertMany(tx, plugStates, states.map(([plugId]) => ({ plugId, updatedAt })), { keep: true });
-        await updateMany(tx, plugStates, "plugId", states.map(([plugId, state]) => ({ plugId, ...state, updatedAt })));
-      }
+      const updatedAt = new Date();
+      await upsertMany(tx, plugStates, states.map(([plugId, state]) => ({ plugId, ...state, updatedAt })));
     });
     for (const { row, version: v } of batch) {
       written.add(row.commandId);
@@ -125,7 +120,8 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
     acknowledge: (commandId, ackAt, latencyMs) => later(commandId, { ackAt, latencyMs }),
     withdraw: (commandId, at) => later(commandId, { withdrawnAt: at }),
     present(plugId, state) {
-      present.set(plugId, state);
+      // Columns set since the last write are kept: one row per plug and flush.
+      present.set(plugId, { ...present.get(plugId), ...state });
     },
     async flush() {
       await running;

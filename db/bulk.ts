@@ -24,6 +24,9 @@ function columnsOf(table: MySqlTable) {
   return { all, column };
 }
 
+/** A column left out of a row gets its SQL default, as a one-row insert would. */
+const SQL_DEFAULT = mysql.raw("DEFAULT");
+
 function driverValue(column: Column, value: unknown): mysql.SqlValue {
   return value === null || value === undefined ? null : (column.mapToDriverValue(value) as mysql.SqlValue);
 }
@@ -32,7 +35,9 @@ export type OnDuplicate<Row> =
   /** Leave the stored row as it is (a second write of the same key is dropped). */
   | { keep: true }
   /** Take the new value of these columns unless it is NULL. */
-  | { fillIn: readonly (keyof Row & string)[] };
+  | { fillIn: readonly (keyof Row & string)[] }
+  /** Take the new value of these columns, NULL included (every row must name them). */
+  | { replace: readonly (keyof Row & string)[] };
 
 export async function insertMany<TTable extends MySqlTable>(
   executor: Executor,
@@ -42,6 +47,27 @@ export async function insertMany<TTable extends MySqlTable>(
 ): Promise<void> {
   if (rows.length === 0) return;
   await run(executor, formatInsert(table, rows, onDuplicate), rows.length);
+}
+
+/**
+ * Writes many rows keyed by their primary key: new rows are inserted, existing ones get
+ * the columns each row names (NULL included) and keep the others. One statement per
+ * set of columns named.
+ */
+export async function upsertMany<TTable extends MySqlTable>(executor: Executor, table: TTable, rows: readonly TTable["$inferInsert"][]): Promise<void> {
+  const { all } = columnsOf(table);
+  const primary = new Set(Object.entries(all).filter(([, c]) => c.primary).map(([key]) => key));
+  const byColumns = new Map<string, TTable["$inferInsert"][]>();
+  for (const row of rows) {
+    const key = Object.keys(row).sort().join(",");
+    const group = byColumns.get(key);
+    if (group) group.push(row);
+    else byColumns.set(key, [row]);
+  }
+  for (const group of byColumns.values()) {
+    const columns = Object.keys(group[0]!).filter((key) => !primary.has(key)) as (keyof TTable["$inferInsert"] & string)[];
+    await insertMany(executor, table, group, columns.length ? { replace: columns } : { keep: true });
+  }
 }
 
 /**
@@ -112,8 +138,7 @@ export function formatInsert<TTable extends MySqlTable>(
       if (value !== undefined) return driverValue(c, value);
       const filled = c.defaultFn ?? c.onUpdateFn;
       if (filled) return driverValue(c, filled());
-      if (c.hasDefault && !c.primary) throw new Error(`insertMany cannot write the SQL default of ${c.name}; give it a value`);
-      return null;
+      return c.hasDefault && !c.primary ? SQL_DEFAULT : null;
     }),
   );
   let statement = mysql.format(
@@ -125,6 +150,12 @@ export function formatInsert<TTable extends MySqlTable>(
   if (onDuplicate && "keep" in onDuplicate) {
     const first = used[0]![1].name;
     statement += mysql.format(" ON DUPLICATE KEY UPDATE ?? = ??", [first, first]);
+  } else if (onDuplicate && "replace" in onDuplicate) {
+    const sets = onDuplicate.replace.map((key) => {
+      const name = column(key).name;
+      return mysql.format("?? = VALUES(??)", [name, name]);
+    });
+    statement += ` ON DUPLICATE KEY UPDATE ${sets.join(", ")}`;
   } else if (onDuplicate) {
     const sets = onDuplicate.fillIn.map((key) => {
       const name = column(key).name;

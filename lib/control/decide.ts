@@ -1,7 +1,7 @@
 import { alertSet, OVERLOAD, SENSOR_QUIET, TOO_HOT } from "./alerts";
 import { bandSenseFor, edgeReached, edgeWantsOn, type BandSense } from "./band";
 import { dutyCycleOn } from "./duty";
-import { checkLoad, type LoadCheck } from "./electrical";
+import { checkLoad, isWithinContinuousLoad, type LoadCheck } from "./electrical";
 import { guardUntil } from "./guard";
 import { freshTempC } from "./sensor";
 import type { Cause, Decision, DecisionInput } from "./types";
@@ -35,13 +35,13 @@ export function decide(input: DecisionInput): Decision {
   // Written so that a NaN high limit cuts the heater out rather than letting it run.
   const tooHot = isHeater && tempC !== null && !(tempC < rules.highLimitC);
   if (tooHot) alerts |= TOO_HOT;
-  const load = checkLoad({
-    watts: rules.applianceWatts,
-    mainsVoltage: rules.mainsVoltage,
-    ratedCurrentA: rules.ratedCurrentA,
-    continuousLoadPercent: rules.continuousLoadPercent,
-  });
-  if (!load.withinLimit) {
+  if (!isWithinContinuousLoad(rules.applianceWatts, rules.mainsVoltage, rules.ratedCurrentA, rules.continuousLoadPercent)) {
+    const load = checkLoad({
+      watts: rules.applianceWatts,
+      mainsVoltage: rules.mainsVoltage,
+      ratedCurrentA: rules.ratedCurrentA,
+      continuousLoadPercent: rules.continuousLoadPercent,
+    });
     return result(false, "safety", false, null, overloadReason(load, rules.continuousLoadPercent), tempC, alerts | OVERLOAD);
   }
   if (tooHot) {

@@ -31,7 +31,12 @@ export function checkLoad({
 }): LoadCheck {
   const currentA = mainsVoltage > 0 ? currentDrawA(watts, mainsVoltage) : Number.NaN;
   const limitA = (ratedCurrentA * continuousLoadPercent) / 100;
+  return { currentA, limitA, withinLimit: isWithinContinuousLoad(watts, mainsVoltage, ratedCurrentA, continuousLoadPercent) };
+}
+
+/** checkLoad's answer alone, with nothing allocated: the decision asks it for every plug on every tick. */
+export function isWithinContinuousLoad(watts: number, mainsVoltage: number, ratedCurrentA: number, continuousLoadPercent: number): boolean {
   const marginKnown = continuousLoadPercent > 0 && continuousLoadPercent <= 100;
   // Written so that NaN anywhere reads as not within the limit.
-  return { currentA, limitA, withinLimit: marginKnown && currentA <= limitA };
+  return marginKnown && mainsVoltage > 0 && currentDrawA(watts, mainsVoltage) <= (ratedCurrentA * continuousLoadPercent) / 100;
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { formatInsert, formatUpdate } from "@/db/bulk";
+import { formatInsert, formatUpdate, upsertMany } from "@/db/bulk";
 import { plugStates, readings, schedules, switchEvents } from "@/db/schema";
 
 describe("formatInsert", () => {
@@ -25,6 +25,14 @@ describe("formatInsert", () => {
     const row = { plugId: "p1", at: new Date(0), toOn: true, cause: "schedule" as const, commandId: "c1", ackAt: null };
     expect(formatInsert(switchEvents, [row], { fillIn: ["ackAt"] })).toMatch(/ ON DUPLICATE KEY UPDATE `ack_at` = COALESCE\(VALUES\(`ack_at`\), `ack_at`\)$/);
     expect(formatInsert(switchEvents, [row], { keep: true })).toMatch(/ ON DUPLICATE KEY UPDATE `plug_id` = `plug_id`$/);
+    expect(formatInsert(switchEvents, [row], { replace: ["ackAt", "toOn"] })).toMatch(/ ON DUPLICATE KEY UPDATE `ack_at` = VALUES\(`ack_at`\), `to_on` = VALUES\(`to_on`\)$/);
+  });
+
+  it("leaves a column with an SQL default that a row does not name to that default", () => {
+    const statement = formatInsert(plugStates, [{ plugId: "p1", on: null, updatedAt: new Date(0) }]);
+    expect(statement).toBe("INSERT INTO `plug_states` (`plug_id`, `on`, `updated_at`) VALUES ('p1', NULL, '1970-01-01 00:00:00.000')");
+    const mixed = formatInsert(plugStates, [{ plugId: "p1", online: true, updatedAt: new Date(0) }, { plugId: "p2", updatedAt: new Date(0) }]);
+    expect(mixed).toContain("('p2', DEFAULT, '1970-01-01 00:00:00.000')");
   });
 
   it("fills in what Drizzle would (ids, timestamps) and refuses a key that is not a column", () => {
@@ -34,6 +42,22 @@ describe("formatInsert", () => {
     const uuid = "'[0-9a-f-]{36}'";
     expect(statement).toMatch(new RegExp(`\\('p1', 'Winter', ${stamp}, ${uuid}, ${stamp}\\), \\('p2', 'Spring', '1970-01-01 00:00:00.000', ${uuid}, ${stamp}\\)$`));
     expect(() => formatInsert(readings, [{ sensorId: "s", at: new Date(0), colour: "red" } as never])).toThrow(/no column "colour"/);
+  });
+});
+
+describe("upsertMany", () => {
+  it("writes each set of columns in its own statement, replacing only the columns a row names", async () => {
+    const statements: string[] = [];
+    const executor = { execute: async (query: { queryChunks?: unknown[] }) => void statements.push(String((query.queryChunks?.[0] as { value: string[] }).value[0])) };
+    const at = new Date(0);
+    await upsertMany(executor as never, plugStates, [
+      { plugId: "p1", online: true, updatedAt: at },
+      { plugId: "p2", on: true, presentCause: "schedule", updatedAt: at },
+      { plugId: "p3", updatedAt: at, online: false },
+    ]);
+    expect(statements).toHaveLength(2);
+    expect(statements[0]).toMatch(/^INSERT INTO `plug_states` \(`plug_id`, `online`, `updated_at`\) VALUES \('p1', true, .*\), \('p3', false, .*\) ON DUPLICATE KEY UPDATE `online` = VALUES\(`online`\), `updated_at` = VALUES\(`updated_at`\)$/);
+    expect(statements[1]).toMatch(/ON DUPLICATE KEY UPDATE `on` = VALUES\(`on`\), `present_cause` = VALUES\(`present_cause`\), `updated_at` = VALUES\(`updated_at`\)$/);
   });
 });
 
