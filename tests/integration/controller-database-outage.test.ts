@@ -7,10 +7,10 @@ import type { MqttClient } from "mqtt";
 import { getDb } from "@/db/client";
 import { switchEvents } from "@/db/schema";
 import { createController, type Controller } from "@/controller/controller";
-import { startPlugDevice, type PlugDevice } from "@/fakes/plug-device";
+import type { PlugDevice } from "@/fakes/plug-device";
 import { deviceUsername } from "@/lib/mqtt/credentials";
 import { sensorTopic } from "@/lib/mqtt/topics";
-import { connectAs, createControlSite, eventually, testControllerOptions, type ControlSite } from "../support/control-site";
+import { connectAs, createControlSite, eventually, testControllerOptions, startTestHeater, type ControlSite } from "../support/control-site";
 import { startTcpProxy, type TcpProxy } from "../support/tcp-proxy";
 
 let site: ControlSite;
@@ -49,17 +49,7 @@ beforeAll(async () => {
   proxy = await startTcpProxy({ host: url.hostname, port: Number(url.port) });
   url.host = `127.0.0.1:${proxy.port}`;
   controller = await createController(testControllerOptions(site, { databaseUrl: url.toString() }));
-  heater = await startPlugDevice({
-    url: controller.mqttUrl,
-    site: site.slug,
-    device: "heater-1",
-    password: site.secret("plug", "heater-1"),
-    ratedW: 2000,
-    failsafeOn: false,
-    tickMs: 100,
-    reportEveryMs: 0,
-    reconnectPeriod: 200,
-  });
+  heater = await startTestHeater(site, controller.mqttUrl);
   sensor = await connectAs(controller.mqttUrl, deviceUsername(site.slug, "sensor", "air-1"), site.secret("sensor", "air-1"));
   feeding = setInterval(() => void publishReading(temperature).catch(() => undefined), 200);
   await switchHeater(false);

@@ -7,12 +7,12 @@ import type { MqttClient } from "mqtt";
 import { getDb } from "@/db/client";
 import { memberships, scheduleWindows, schedules, switchEvents } from "@/db/schema";
 import { createController, type Controller } from "@/controller/controller";
-import { startPlugDevice, type PlugDevice } from "@/fakes/plug-device";
+import type { PlugDevice } from "@/fakes/plug-device";
 import { deviceUsername } from "@/lib/mqtt/credentials";
 import { sensorTopic } from "@/lib/mqtt/topics";
 import { setWakeBroker, wakeController } from "@/lib/server/wake";
 import * as houseRoute from "@/app/api/sites/[siteId]/houses/[houseId]/route";
-import { connectAs, createControlSite, eventually, testControllerOptions, type ControlSite } from "../support/control-site";
+import { connectAs, createControlSite, eventually, testControllerOptions, startTestHeater, type ControlSite } from "../support/control-site";
 import { call, signUp, type Account } from "../support/http";
 
 let site: ControlSite;
@@ -34,17 +34,7 @@ beforeAll(async () => {
   const options = testControllerOptions(site, { configReloadMs: 3600_000 });
   controller = await createController(options);
   await setWakeBroker({ url: controller.mqttUrl, secret: options.webappSecret });
-  heater = await startPlugDevice({
-    url: controller.mqttUrl,
-    site: site.slug,
-    device: "heater-1",
-    password: site.secret("plug", "heater-1"),
-    ratedW: 2000,
-    failsafeOn: false,
-    tickMs: 100,
-    reportEveryMs: 0,
-    reconnectPeriod: 200,
-  });
+  heater = await startTestHeater(site, controller.mqttUrl);
   sensor = await connectAs(controller.mqttUrl, deviceUsername(site.slug, "sensor", "air-1"), site.secret("sensor", "air-1"));
   await sensor.publishAsync(sensorTopic(site.slug, "air-1"), JSON.stringify({ temp_c: 18, rh: 80, at: new Date().toISOString() }), { qos: 1 });
   await eventually(() => heater.on, 5000, "heater on below its band");

@@ -8,6 +8,7 @@ import type { Database } from "@/db/client";
 import { issueDeviceCredential } from "@/db/device-credentials";
 import { houses, plugs, scheduleWindows, schedules, sensors, sites } from "@/db/schema";
 import { WEBAPP_USERNAME, deviceUsername } from "@/lib/mqtt/credentials";
+import { startPlugDevice } from "@/fakes/plug-device";
 
 export type ControlSite = Awaited<ReturnType<typeof createControlSite>>;
 
@@ -145,4 +146,19 @@ export function testControllerOptions(site: ControlSite, extra: Partial<Controll
     logger: pino({ level: "silent" }),
     ...extra,
   } satisfies Partial<ControllerOptions>;
+}
+
+/** The test site's simulated heater on a controller's broker: fail-safe off, fast ticks, reconnecting. */
+export function startTestHeater(site: ControlSite, url: string) {
+  return startPlugDevice({
+    url,
+    site: site.slug,
+    device: "heater-1",
+    password: site.secret("plug", "heater-1"),
+    ratedW: 2000,
+    failsafeOn: false,
+    tickMs: 100,
+    reportEveryMs: 0,
+    reconnectPeriod: 200,
+  });
 }
