@@ -131,6 +131,8 @@ export async function createBroker(options: BrokerOptions): Promise<Broker> {
         closed = true;
         await Promise.all(o.subscriptions.map((topic) => new Promise<void>((resolve) => aedes.unsubscribe(topic, deliver, resolve))));
       },
+      // In place, and the retained messages heard, before this link was handed out.
+      subscribed: Promise.resolve(),
     };
   }
 

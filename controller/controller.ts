@@ -73,6 +73,9 @@ const defaults: Omit<ControllerOptions, "databaseUrl" | "controllerSecret" | "we
   now: Date.now,
 };
 
+/** How long start-up waits for an external broker to take the subscriptions. */
+const SUBSCRIBE_WAIT_MS = 10_000;
+
 export type ControllerStats = {
   dropped: Record<string, number>;
   commandsSent: number;
@@ -269,7 +272,9 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
     ? await broker.link(linkOptions)
     : connectNetworkLink({ ...linkOptions, url: mqttUrl, username: CONTROLLER_USERNAME, password: options.controllerSecret });
   outbox.attach(link);
-
+  // The grace for the plugs' retained reports starts when they can arrive: an external
+  // broker may take a while to connect. Past the wait, plugs are decided on without them.
+  await Promise.race([link.subscribed, new Promise((resolve) => setTimeout(resolve, SUBSCRIBE_WAIT_MS).unref())]);
   startedMs = now();
   timers.every(options.tickMs, tick);
   timers.every(options.configReloadMs, () => reloadSoon());

@@ -19,6 +19,8 @@ export type BrokerLink = {
   /** Publishes at QoS 1, not retained; `onError` hears a publish the broker did not take. */
   publish: (topic: string, payload: string, onError: (error: Error) => void) => void;
   close: () => Promise<void>;
+  /** Settles once the subscriptions are in place (retained messages follow at once). */
+  subscribed: Promise<void>;
 };
 
 export type NetworkLinkOptions = LinkOptions & { url: string; username: string; password: string };
@@ -34,12 +36,15 @@ export function connectNetworkLink(options: NetworkLinkOptions): BrokerLink {
     reconnectPeriod: 1000,
     connectTimeout: 10_000,
   });
+  let markSubscribed: () => void = () => undefined;
+  const subscribed = new Promise<void>((resolve) => (markSubscribed = resolve));
   client.on("connect", () => {
     // Without no-delay a QoS 1 round trip on loopback waits ~40 ms for delayed ACKs.
     (client.stream as unknown as { setNoDelay?: (on: boolean) => void }).setNoDelay?.(true);
     logger.info({ url: options.url }, "connected to the MQTT broker");
     client.subscribe(options.subscriptions, { qos: 1 }, (error) => {
       if (error) logger.error({ err: error }, "subscription failed");
+      else markSubscribed();
     });
   });
   client.on("reconnect", () => logger.warn("reconnecting to the MQTT broker"));
@@ -54,5 +59,6 @@ export function connectNetworkLink(options: NetworkLinkOptions): BrokerLink {
       });
     },
     close: () => (closing ??= client.endAsync().catch(() => undefined)),
+    subscribed,
   };
 }
