@@ -13,7 +13,7 @@ import { randomUUID } from "node:crypto";
 import pino, { type Logger } from "pino";
 import { connect, type Database } from "@/db/client";
 import { lookupDeviceSecret } from "@/db/device-credentials";
-import { loadPlugStates } from "@/db/plug-states";
+import { loadPlugStates, storedSwitchState } from "@/db/plug-states";
 import type { Decision } from "@/lib/control";
 import { restoredState } from "@/lib/control/switch-lifecycle";
 import { CONTROLLER_USERNAME } from "@/lib/mqtt/credentials";
@@ -132,26 +132,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
     const config = await loadConfig(db, new Date(now()), slugs);
     const stored = await loadPlugStates(db, registry.unknownPlugs(config).map((p) => p.id));
     const startMs = now();
-    registry.apply(
-      config,
-      (plug) => {
-        const row = stored.get(plug.id);
-        return restoredState(
-          row
-            ? {
-                on: row.on,
-                sinceMs: row.since?.getTime() ?? null,
-                switchId: row.switchCommandId,
-                pending: row.pendingCommandId && row.pendingOn !== null ? { id: row.pendingCommandId, on: row.pendingOn, sinceMs: row.pendingSince?.getTime() ?? startMs } : null,
-                presentCause: row.presentCause,
-                newestReportMs: row.reportedAt?.getTime() ?? null,
-              }
-            : null,
-          startMs,
-        );
-      },
-      !siteSlug,
-    );
+    registry.apply(config, (plug) => restoredState(storedSwitchState(stored.get(plug.id), startMs), startMs), !siteSlug);
     // New windows or overrides may bring the next edge closer.
     if (edgesArmed) armEdge();
     logger.info({ site: siteSlug ?? "all", sites: config.sites.length, plugs: config.plugs.length, sensors: config.sensors.length }, "configuration loaded");
