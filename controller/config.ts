@@ -72,11 +72,11 @@ export async function loadConfig(db: Database, now: Date, siteSlugs?: string[]):
       .select({ plug: plugs, highLimitC: houses.highLimitC })
       .from(plugs)
       .innerJoin(houses, eq(houses.id, plugs.houseId))
-      .where(inArray(plugs.siteId, siteIds)),
+      .where(and(inArray(plugs.siteId, siteIds), isNull(plugs.retiredAt))),
     db
       .select({ id: sensors.id, siteId: sensors.siteId, houseId: sensors.houseId, deviceId: sensors.deviceId })
       .from(sensors)
-      .where(inArray(sensors.siteId, siteIds)),
+      .where(and(inArray(sensors.siteId, siteIds), isNull(sensors.retiredAt))),
   ]);
 
   const plugIds = plugRows.map((r) => r.plug.id);

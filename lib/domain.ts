@@ -108,3 +108,11 @@ export const DEFAULT_STALE_AFTER_S = 600;
 
 /** A load that runs for hours may draw at most this percent of its plug's rating (sites.continuous_load_percent). */
 export const CONTINUOUS_LOAD_PERCENT = { default: 80, min: 50, max: 100, label: "Continuous-load margin" } as const;
+
+/** Each person's own choice of how temperatures are shown and typed. */
+export const TEMPERATURE_UNITS = ["c", "f"] as const;
+export type TemperatureUnit = (typeof TEMPERATURE_UNITS)[number];
+export const TEMPERATURE_UNIT_LABELS: Record<TemperatureUnit, string> = { c: "°C", f: "°F" };
+
+/** How long an invitation link stays usable. */
+export const INVITATION_TTL_HOURS = 72;

@@ -33,7 +33,7 @@ export function SiteHeader({ site, sites, userName }: SiteHeaderProps) {
           <SignOutButton className="shrink-0" />
         </div>
       </div>
-      <SiteNav slug={site.slug} />
+      <SiteNav slug={site.slug} role={site.role} />
     </header>
   );
 }

@@ -2,22 +2,33 @@
 
 import Link from "next/link";
 import { usePathname } from "next/navigation";
+import { can, type Action, type Role } from "@/lib/permissions";
 
-/** The sections of a site. Sections arrive here as they are built. */
-export function SiteNav({ slug }: { slug: string }) {
+/** The sections of a site, each shown to the roles that may open it. */
+const SECTIONS: { path: string; label: string; action: Action }[] = [
+  { path: "", label: "Houses", action: "site.view" },
+  { path: "/schedules", label: "Schedules", action: "site.view" },
+  { path: "/devices", label: "Devices", action: "site.view" },
+  { path: "/members", label: "Members", action: "members.view" },
+  { path: "/activity", label: "Activity", action: "audit.view" },
+  { path: "/settings", label: "Settings", action: "site.view" },
+];
+
+export function SiteNav({ slug, role }: { slug: string; role: Role }) {
   const pathname = usePathname();
-  const links = [{ href: `/sites/${slug}`, label: "Houses" }];
+  const base = `/sites/${slug}`;
+  const links = SECTIONS.filter((s) => can(role, s.action)).map((s) => ({ href: base + s.path, label: s.label }));
   return (
     <nav aria-label="Site sections" className="mx-auto max-w-5xl px-4">
       <ul className="-mb-px flex gap-1 overflow-x-auto">
         {links.map((link) => {
-          const active = pathname === link.href;
+          const active = link.href === base ? pathname === base : pathname.startsWith(link.href);
           return (
             <li key={link.href}>
               <Link
                 href={link.href}
                 aria-current={active ? "page" : undefined}
-                className={`inline-flex min-h-11 items-center border-b-2 px-3 text-sm font-medium ${
+                className={`inline-flex min-h-11 items-center border-b-2 px-3 text-sm font-medium whitespace-nowrap ${
                   active ? "border-leaf-600 text-leaf-800" : "border-transparent text-frost-600 hover:text-frost-900"
                 }`}
               >

@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, eq, inArray, sql } from "drizzle-orm";
+import { and, asc, eq, inArray, isNull, sql } from "drizzle-orm";
 import { randomUUID } from "node:crypto";
 import { getDb } from "@/db/client";
 import { houses, plugStates, plugs, sensorStates, sensors } from "@/db/schema";
@@ -50,7 +50,7 @@ export async function getHouseOverviewsBySite({ siteId }: { siteId: string }): P
       })
       .from(plugs)
       .leftJoin(plugStates, eq(plugStates.plugId, plugs.id))
-      .where(and(eq(plugs.siteId, siteId), inArray(plugs.houseId, ids)))
+      .where(and(eq(plugs.siteId, siteId), inArray(plugs.houseId, ids), isNull(plugs.retiredAt)))
       .orderBy(asc(plugs.name)),
     db
       .select({
@@ -63,7 +63,7 @@ export async function getHouseOverviewsBySite({ siteId }: { siteId: string }): P
       })
       .from(sensors)
       .leftJoin(sensorStates, eq(sensorStates.sensorId, sensors.id))
-      .where(and(eq(sensors.siteId, siteId), inArray(sensors.houseId, ids)))
+      .where(and(eq(sensors.siteId, siteId), inArray(sensors.houseId, ids), isNull(sensors.retiredAt)))
       .orderBy(asc(sensors.name)),
   ]);
   const followerLimits = groupBy(plugRows, (p) => p.sensorId ?? "");

@@ -47,11 +47,11 @@ export async function getSiteLive({ siteId, now = new Date() }: { siteId: string
       .select({ id: sensors.id, houseId: sensors.houseId, online: sensorStates.online, lastSeenAt: sensorStates.lastSeenAt })
       .from(sensors)
       .leftJoin(sensorStates, eq(sensorStates.sensorId, sensors.id))
-      .where(eq(sensors.siteId, siteId)),
+      .where(and(eq(sensors.siteId, siteId), isNull(sensors.retiredAt))),
     db
       .select({ id: plugs.id, houseId: plugs.houseId })
       .from(plugs)
-      .where(eq(plugs.siteId, siteId)),
+      .where(and(eq(plugs.siteId, siteId), isNull(plugs.retiredAt))),
     db
       .select({
         id: alerts.id,

@@ -20,5 +20,9 @@ export const auditLog = mysqlTable(
     before: json("before"),
     after: json("after"),
   },
-  (t) => [index("audit_log_site_at_idx").on(t.siteId, t.at)],
+  (t) => [
+    index("audit_log_site_at_idx").on(t.siteId, t.at),
+    index("audit_log_site_user_at_idx").on(t.siteId, t.userId, t.at),
+    index("audit_log_site_entity_at_idx").on(t.siteId, t.entityType, t.at),
+  ],
 );

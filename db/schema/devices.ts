@@ -30,6 +30,8 @@ export const sensors = mysqlTable(
     /** MQTT device id: the `{device}` segment of its topics. */
     deviceId: varchar("device_id", { length: 64 }).notNull(),
     name: varchar("name", { length: 80 }).notNull(),
+    /** Retired: kept for its history, no longer signed in, read or shown among the working devices. */
+    retiredAt: instant("retired_at"),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
@@ -71,6 +73,8 @@ export const plugs = mysqlTable(
     minOffS: int("min_off_s").notNull().default(180),
     /** How long a command holds; past it the plug falls back to its own fail-safe. */
     leaseS: int("lease_s").notNull().default(900),
+    /** Retired: kept for its history, no longer switched, signed in or shown among the working devices. */
+    retiredAt: instant("retired_at"),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },

@@ -25,6 +25,8 @@ export const houses = mysqlTable(
     airChangesPerHour: decimal("air_changes_per_hour", { precision: 4, scale: 2, mode: "number" })
       .notNull()
       .default(1),
+    /** Frost limit: bands may not reach below it, and it is the "too cold" alarm (alerts). */
+    lowLimitC: decimal("low_limit_c", { precision: 4, scale: 1, mode: "number" }).notNull().default(2),
     /** Safety cut-out: heaters are switched off at or above this temperature. */
     highLimitC: decimal("high_limit_c", { precision: 4, scale: 1, mode: "number" }).notNull().default(35),
     notes: text("notes"),

@@ -10,3 +10,4 @@ export * from "./tariffs";
 export * from "./alerts";
 export * from "./audit";
 export * from "./state";
+export * from "./people";

@@ -1,0 +1,19 @@
+import "server-only";
+import { eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { userSettings } from "@/db/schema";
+import type { TemperatureUnit } from "@/lib/domain";
+
+export type UserSettings = { temperatureUnit: TemperatureUnit };
+
+const defaults: UserSettings = { temperatureUnit: "c" };
+
+/** A person's own settings; the defaults until they choose. */
+export async function getUserSettings({ userId }: { userId: string }): Promise<UserSettings> {
+  const [row] = await getDb()
+    .select({ temperatureUnit: userSettings.temperatureUnit })
+    .from(userSettings)
+    .where(eq(userSettings.userId, userId))
+    .limit(1);
+  return row ?? defaults;
+}
