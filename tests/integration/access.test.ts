@@ -10,50 +10,17 @@ import { verifyDeviceSecret } from "@/lib/server/device-secrets";
 import { DEMO_MEMBERS, DEMO_SITE, demoId, seedDemo } from "@/db/seed";
 import * as sitesRoute from "@/app/api/sites/route";
 import * as siteRoute from "@/app/api/sites/[siteId]/route";
-import * as membersRoute from "@/app/api/sites/[siteId]/members/route";
 import * as housesRoute from "@/app/api/sites/[siteId]/houses/route";
 import * as houseRoute from "@/app/api/sites/[siteId]/houses/[houseId]/route";
-import * as liveRoute from "@/app/api/sites/[siteId]/live/route";
 import * as credentialRoute from "@/app/api/sites/[siteId]/devices/[kind]/[id]/credential/route";
 import { call, signIn, signUp, type Account } from "../support/http";
+import type { Ids, RouteCase } from "./access/case";
+import { newHouse } from "./access/site";
 
-const newHouse = {
-  name: "Test Lean-to",
-  kind: "glasshouse",
-  lengthM: 4,
-  widthM: 2.5,
-  eaveHeightM: 2,
-  ridgeHeightM: 2.6,
-  glazing: "single_glass",
-};
-
-type Ids = { siteId: string; houseId: string; plugId: string };
-type RouteCase = {
-  file: string;
-  method: "GET" | "POST" | "PATCH" | "DELETE";
-  handler: unknown;
-  path: (ids: Ids) => string;
-  params: (ids: Ids) => Record<string, string>;
-  body?: unknown;
-  /** Site-scoped handlers must hide other sites. */
-  siteScoped: boolean;
-  write: boolean;
-};
-
-const routes: RouteCase[] = [
-  { file: "app/api/sites/route.ts", method: "GET", handler: sitesRoute.GET, path: () => "/api/sites", params: () => ({}), siteScoped: false, write: false },
-  { file: "app/api/sites/route.ts", method: "POST", handler: sitesRoute.POST, path: () => "/api/sites", params: () => ({}), body: { siteName: "Second Plot", timeZone: "Europe/Dublin", currency: "EUR" }, siteScoped: false, write: true },
-  { file: "app/api/sites/[siteId]/route.ts", method: "GET", handler: siteRoute.GET, path: (i) => `/api/sites/${i.siteId}`, params: (i) => ({ siteId: i.siteId }), siteScoped: true, write: false },
-  { file: "app/api/sites/[siteId]/route.ts", method: "PATCH", handler: siteRoute.PATCH, path: (i) => `/api/sites/${i.siteId}`, params: (i) => ({ siteId: i.siteId }), body: { name: "Renamed" }, siteScoped: true, write: true },
-  { file: "app/api/sites/[siteId]/members/route.ts", method: "GET", handler: membersRoute.GET, path: (i) => `/api/sites/${i.siteId}/members`, params: (i) => ({ siteId: i.siteId }), siteScoped: true, write: false },
-  { file: "app/api/sites/[siteId]/houses/route.ts", method: "GET", handler: housesRoute.GET, path: (i) => `/api/sites/${i.siteId}/houses`, params: (i) => ({ siteId: i.siteId }), siteScoped: true, write: false },
-  { file: "app/api/sites/[siteId]/houses/route.ts", method: "POST", handler: housesRoute.POST, path: (i) => `/api/sites/${i.siteId}/houses`, params: (i) => ({ siteId: i.siteId }), body: newHouse, siteScoped: true, write: true },
-  { file: "app/api/sites/[siteId]/houses/[houseId]/route.ts", method: "GET", handler: houseRoute.GET, path: (i) => `/api/sites/${i.siteId}/houses/${i.houseId}`, params: (i) => ({ ...i }), siteScoped: true, write: false },
-  { file: "app/api/sites/[siteId]/houses/[houseId]/route.ts", method: "PATCH", handler: houseRoute.PATCH, path: (i) => `/api/sites/${i.siteId}/houses/${i.houseId}`, params: (i) => ({ ...i }), body: { name: "Renamed house" }, siteScoped: true, write: true },
-  { file: "app/api/sites/[siteId]/live/route.ts", method: "GET", handler: liveRoute.GET, path: (i) => `/api/sites/${i.siteId}/live`, params: (i) => ({ siteId: i.siteId }), siteScoped: true, write: false },
-  { file: "app/api/sites/[siteId]/devices/[kind]/[id]/credential/route.ts", method: "POST", handler: credentialRoute.POST, path: (i) => `/api/sites/${i.siteId}/devices/plug/${i.plugId}/credential`, params: (i) => ({ siteId: i.siteId, kind: "plug", id: i.plugId }), body: {}, siteScoped: true, write: true },
-  { file: "app/api/sites/[siteId]/houses/[houseId]/route.ts", method: "DELETE", handler: houseRoute.DELETE, path: (i) => `/api/sites/${i.siteId}/houses/${i.houseId}`, params: (i) => ({ ...i }), siteScoped: true, write: true },
-];
+/** Every feature's route cases (tests/integration/access/*.ts, each exporting `cases`). */
+const routes: RouteCase[] = Object.values(
+  import.meta.glob<{ cases?: RouteCase[] }>("./access/*.ts", { eager: true }),
+).flatMap((mod) => mod.cases ?? []);
 
 /** Handlers that are public by design, and what guards them instead. */
 const PUBLIC = new Set(["app/api/auth/[...all]/route.ts", "app/api/health/route.ts"]);
@@ -66,7 +33,12 @@ function routeFiles(dir: string): string[] {
   });
 }
 
-const demo: Ids = { siteId: DEMO_SITE.id, houseId: demoId("house:glass"), plugId: demoId("plug:glass-heater") };
+const demo: Ids = {
+  siteId: DEMO_SITE.id,
+  houseId: demoId("house:glass"),
+  plugId: demoId("plug:glass-heater"),
+  sensorId: demoId("sensor:glass"),
+};
 const cookies: Record<string, string> = {};
 let outsider: Account;
 let outsiderSite: string;
@@ -115,7 +87,7 @@ describe.each(routes)("$method $file", (route) => {
       expect(await getDb().select().from(houses).where(eq(houses.siteId, DEMO_SITE.id))).toEqual(before);
     });
 
-    if (route.path(demo).includes(demo.houseId) || route.path(demo).includes(demo.plugId)) {
+    if ([demo.houseId, demo.plugId, demo.sensorId].some((id) => route.path(demo).includes(id))) {
       it("does not reach another site's house through one's own site (404)", async () => {
         const ids = { ...demo, siteId: outsiderSite };
         const response = await call(route.handler, {
