@@ -21,6 +21,11 @@ export default defineConfig({
       },
       {
         resolve,
+        // Client components with their API stood in for by msw.
+        test: { name: "components", include: ["tests/components/**/*.test.tsx"], environment: "jsdom" },
+      },
+      {
+        resolve,
         test: {
           name: "integration",
           include: ["tests/integration/**/*.test.ts"],
