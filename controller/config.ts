@@ -1,49 +1,15 @@
 // Loads what the controller needs from MariaDB: sites, plugs with their house's
 // limits, sensors, schedules and the overrides that are or will be active.
-import { and, desc, eq, gt, inArray, isNull, or, sql } from "drizzle-orm";
+import { and, eq, gt, inArray, isNull, sql } from "drizzle-orm";
 import type { Database } from "@/db/client";
 import { sharedRules, type PlugRules } from "@/lib/control";
-import { groupBy } from "@/lib/group-by";
-import {
-  houses,
-  overrides,
-  plugs,
-  readings,
-  scheduleExceptions,
-  scheduleWindows,
-  schedules,
-  sensors,
-  sites,
-} from "@/db/schema";
+import { houses, plugs, readings, sensors, sites } from "@/db/schema";
+import { loadPlugSchedules, type OverrideConfig, type ScheduleConfig } from "@/db/plug-schedules";
 
 export type SiteConfig = { id: string; slug: string; timeZone: string; mainsVoltage: number; continuousLoadPercent: number };
 export type PlugConfig = typeof plugs.$inferSelect & { highLimitC: number };
 export type SensorConfig = Pick<typeof sensors.$inferSelect, "id" | "siteId" | "houseId" | "deviceId">;
-export type ScheduleConfig = {
-  id: string;
-  plugId: string;
-  validFrom: string | null;
-  validUntil: string | null;
-  windows: {
-    id: string;
-    recurrence: string;
-    startsAt: string;
-    durationMin: number;
-    mode: "band" | "on" | "off";
-    lowC: number | null;
-    highC: number | null;
-  }[];
-  skipDays: string[];
-};
-export type OverrideConfig = {
-  id: string;
-  plugId: string;
-  on: boolean;
-  startsAt: Date;
-  endsAt: Date | null;
-  untilNextChange: boolean;
-  userId: string | null;
-};
+export type { OverrideConfig, ScheduleConfig };
 
 export type Config = {
   sites: SiteConfig[];
@@ -84,61 +50,12 @@ export async function loadConfig(db: Database, now: Date, siteSlugs?: string[]):
     return { sites: siteRows, plugs: [], sensors: sensorRows, schedules: [], overrides: [] };
   }
 
-  const [scheduleRows, windowRows, skipRows, overrideRows] = await Promise.all([
-    db.select().from(schedules).where(inArray(schedules.plugId, plugIds)),
-    db
-      .select({ window: scheduleWindows })
-      .from(scheduleWindows)
-      .innerJoin(schedules, eq(schedules.id, scheduleWindows.scheduleId))
-      .where(inArray(schedules.plugId, plugIds)),
-    db
-      .select({ scheduleId: scheduleExceptions.scheduleId, day: scheduleExceptions.day })
-      .from(scheduleExceptions)
-      .innerJoin(schedules, eq(schedules.id, scheduleExceptions.scheduleId))
-      .where(inArray(schedules.plugId, plugIds)),
-    db
-      .select({
-        id: overrides.id,
-        plugId: overrides.plugId,
-        on: overrides.on,
-        startsAt: overrides.startsAt,
-        endsAt: overrides.endsAt,
-        untilNextChange: overrides.untilNextChange,
-        userId: overrides.userId,
-      })
-      .from(overrides)
-      .where(
-        and(
-          inArray(overrides.plugId, plugIds),
-          isNull(overrides.cancelledAt),
-          or(isNull(overrides.endsAt), gt(overrides.endsAt, now)),
-        ),
-      )
-      .orderBy(desc(overrides.startsAt)),
-  ]);
-
-  const windowsOf = groupBy(windowRows, (w) => w.window.scheduleId);
-  const skipDaysOf = groupBy(skipRows, (k) => k.scheduleId);
+  const { schedules: plugSchedules, overrides: overrideRows } = await loadPlugSchedules(db, plugIds, now);
   return {
     sites: siteRows,
     plugs: plugRows.map((r) => ({ ...r.plug, highLimitC: r.highLimitC })),
     sensors: sensorRows,
-    schedules: scheduleRows.map((s) => ({
-      id: s.id,
-      plugId: s.plugId,
-      validFrom: s.validFrom,
-      validUntil: s.validUntil,
-      windows: (windowsOf.get(s.id) ?? []).map(({ window: w }) => ({
-        id: w.id,
-        recurrence: w.recurrence,
-        startsAt: w.startsAt,
-        durationMin: w.durationMin,
-        mode: w.mode,
-        lowC: w.lowC,
-        highC: w.highC,
-      })),
-      skipDays: (skipDaysOf.get(s.id) ?? []).map((k) => k.day),
-    })),
+    schedules: plugSchedules,
     overrides: overrideRows,
   };
 }
