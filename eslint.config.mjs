@@ -43,5 +43,5 @@ export default defineConfig([
       ],
     },
   },
-  globalIgnores([".next/**", ".data/**", "node_modules/**", "drizzle/**", "next-env.d.ts", "coverage/**"]),
+  globalIgnores([".next/**", ".data/**", "test-results/**", "node_modules/**", "drizzle/**", "next-env.d.ts", "coverage/**"]),
 ]);

@@ -37,6 +37,19 @@ export default defineConfig({
           setupFiles: ["tests/support/integration-setup.ts"],
         },
       },
+      {
+        resolve,
+        // Journeys through the running product in Debian's Chromium; `npm test` starts
+        // the stack and gives its address (scripts/test.ts).
+        test: {
+          name: "browser",
+          include: ["tests/browser/**/*.test.ts"],
+          environment: "node",
+          testTimeout: 120_000,
+          hookTimeout: 120_000,
+          fileParallelism: false,
+        },
+      },
     ],
   },
 });

@@ -10,7 +10,7 @@ import { dataFolder } from "./common";
 
 export const DEVICE_SECRETS_FILE = path.join(dataFolder, "device-secrets.json");
 
-export async function issueDemoDeviceSecrets(db: Database, siteSlug: string) {
+export async function issueDemoDeviceSecrets(db: Database, siteSlug: string, file = DEVICE_SECRETS_FILE) {
   const [site] = await db.select({ id: sites.id, slug: sites.slug }).from(sites).where(eq(sites.slug, siteSlug));
   if (!site) throw new Error(`no site ${siteSlug} to issue device credentials for`);
   const devices = [
@@ -22,6 +22,6 @@ export async function issueDemoDeviceSecrets(db: Database, siteSlug: string) {
     const { username, secret } = await issueDeviceCredential(db, { siteId: site.id, siteSlug: site.slug, kind: device.kind, deviceId: device.deviceId });
     secrets[username] = secret;
   }
-  writeFileSync(DEVICE_SECRETS_FILE, JSON.stringify(secrets, null, 2) + "\n", { mode: 0o600 });
+  writeFileSync(file, JSON.stringify(secrets, null, 2) + "\n", { mode: 0o600 });
   return devices.length;
 }

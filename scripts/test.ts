@@ -1,12 +1,68 @@
 // `npm test`: a private MariaDB with a fresh database, migrations, type-check, lint,
-// then the unit and integration tests against that database.
+// the unit, component and integration tests against that database, then the browser
+// journeys against the whole product started as `npm start` starts it.
 import { randomBytes } from "node:crypto";
-import { LocalDatabaseError, TEST_DATABASE_FOLDER, startLocalDatabase, type LocalDatabase } from "./local-server";
+import path from "node:path";
+import mysql from "mysql2/promise";
+import { LocalDatabaseError, TEST_DATABASE_FOLDER, freePort, startLocalDatabase, type LocalDatabase } from "./local-server";
 import { migrateDatabase } from "../db/migrate";
-import { bin, run, say } from "./common";
+import { bin, dataFolder, run, say } from "./common";
 import { ensureProgram } from "./debian";
+import { startStack, type Stack } from "./stack";
 
 let database: LocalDatabase | undefined;
+let stack: Stack | undefined;
+
+const BROWSER_FOLDER = "tests/browser";
+const args = process.argv.slice(2);
+/** Arguments that are paths pick test files; browser journeys run when none is given or one points at them. */
+const paths = args.filter((a) => !a.startsWith("-"));
+const runsBrowser = paths.length === 0 || paths.some((p) => p.replace(/^\.\//, "").startsWith(BROWSER_FOLDER));
+const vitestPaths = paths.filter((p) => !p.replace(/^\.\//, "").startsWith(BROWSER_FOLDER));
+const runsVitest = paths.length === 0 || vitestPaths.length > 0;
+
+/** The browser journeys' own database beside the tests' one, emptied first. */
+async function browserDatabase(testUrl: string): Promise<string> {
+  const url = new URL(testUrl);
+  const name = `${url.pathname.slice(1)}_browser`;
+  const admin = await mysql.createConnection({ uri: testUrl });
+  try {
+    await admin.query(`DROP DATABASE IF EXISTS \`${name}\``);
+    await admin.query(`CREATE DATABASE \`${name}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+  } finally {
+    await admin.end();
+  }
+  url.pathname = `/${name}`;
+  return url.toString();
+}
+
+async function browserJourneys(env: NodeJS.ProcessEnv): Promise<number> {
+  ensureProgram(["chromium"], "chromium", "Chromium (the browser journeys)", (line) => say(line));
+  const host = "127.0.0.1";
+  const port = await freePort();
+  const url = `http://${host}:${port}`;
+  stack = await startStack({
+    databaseUrl: await browserDatabase(env.DATABASE_URL!),
+    host,
+    port,
+    mqttPort: await freePort(),
+    historyDays: 2,
+    deviceSecretsFile: path.join(dataFolder, "device-secrets.browser-tests.json"),
+    // Every journey signs in; the per-address sign-in limit would otherwise throttle them.
+    env: { BETTER_AUTH_URL: url, BETTER_AUTH_SECRET: env.BETTER_AUTH_SECRET!, CLOCHE_SIGN_IN_LIMIT: "100" },
+  });
+  try {
+    return await run(bin("vitest"), ["run", "--project", "browser", ...args.filter((a) => a.startsWith("-")), ...paths.filter((p) => !vitestPaths.includes(p))], {
+      ...env,
+      ...stack.env,
+      NODE_ENV: "test",
+      CLOCHE_BROWSER_BASE_URL: url,
+    });
+  } finally {
+    await stack.stop();
+    stack = undefined;
+  }
+}
 
 async function main() {
   const began = Date.now();
@@ -32,13 +88,17 @@ async function main() {
         ["type-check", bin("tsc"), ["--noEmit", "-p", "."]],
         ["lint", bin("eslint"), ["--max-warnings", "0", "."]],
       ];
-  const steps: [string, string, string[]][] = [
-    ...checks,
-    ["unit and integration tests", bin("vitest"), ["run", ...process.argv.slice(2)]],
+  const projects = ["--project", "unit", "--project", "components", "--project", "integration"];
+  const steps: [string, () => Promise<number>][] = [
+    ...checks.map(([label, command, commandArgs]): [string, () => Promise<number>] => [label, () => run(command, commandArgs, env)]),
+    ...(runsVitest
+      ? [["unit, component and integration tests", () => run(bin("vitest"), ["run", ...projects, ...args.filter((a) => !paths.includes(a) || vitestPaths.includes(a))], env)] as [string, () => Promise<number>]]
+      : []),
+    ...(runsBrowser ? [["browser journeys", () => browserJourneys(env)] as [string, () => Promise<number>]] : []),
   ];
-  for (const [label, command, args] of steps) {
+  for (const [label, step] of steps) {
     say(`${label}…`);
-    const code = await run(command, args, env);
+    const code = await step();
     if (code !== 0) {
       say(`${label} failed (exit ${code}).`);
       return code;
@@ -52,6 +112,7 @@ let finished = false;
 async function finish(code: number) {
   if (finished) return;
   finished = true;
+  await stack?.stop();
   await database?.stop();
   process.exit(code);
 }

@@ -40,6 +40,7 @@ describe("migrations", () => {
         "controller_heartbeats",
         "device_credentials",
         "houses",
+        "invitations",
         "memberships",
         "overrides",
         "plug_states",
@@ -57,6 +58,7 @@ describe("migrations", () => {
         "tariff_rates",
         "tariffs",
         "user",
+        "user_settings",
         "verification",
       ].sort(),
     );
