@@ -8,6 +8,7 @@ import type { BrokerLink, LinkOptions } from "./link";
 import {
   CONTROLLER_USERNAME,
   WEBAPP_USERNAME,
+  deviceUsername,
   mayPublish,
   maySubscribe,
   parseDeviceUsername,
@@ -30,6 +31,12 @@ export type Broker = {
   counts: { refusedLogins: number; refusedPublishes: number; refusedSubscriptions: number };
   /** The controller's own way in: no socket, no encoding, no acknowledgements. */
   link: (options: LinkOptions) => Promise<BrokerLink>;
+  /**
+   * Signs out the site's connected devices whose credential has been revoked or
+   * replaced since they signed in (a retired device, a revoked or re-issued secret).
+   * Returns how many were signed out.
+   */
+  recheckDevices: (siteSlug: string) => Promise<number>;
   close: () => Promise<void>;
 };
 
@@ -37,6 +44,8 @@ type RetainedPacket = { topic: string; payload: Buffer | string };
 type RetainedStore = { createRetainedStreamCombi: (patterns: string[]) => AsyncIterable<RetainedPacket> };
 
 const principals = new WeakMap<Client, Principal>();
+/** The stored hash each device signed in against, to notice when it is revoked or replaced. */
+const signedInWith = new WeakMap<Client, string>();
 
 function authError(message: string) {
   return Object.assign(new Error(message), { returnCode: 4 as const });
@@ -68,6 +77,7 @@ export async function createBroker(options: BrokerOptions): Promise<Broker> {
         .then((stored) => {
           if (!stored || !verifyDeviceSecret(secret, stored)) return refuse("wrong secret");
           principals.set(client, principal);
+          signedInWith.set(client, stored);
           done(null, true);
         })
         .catch((error: unknown) => {
@@ -136,11 +146,27 @@ export async function createBroker(options: BrokerOptions): Promise<Broker> {
     };
   }
 
+  async function recheckDevices(siteSlug: string): Promise<number> {
+    const clients = Object.values((aedes as unknown as { clients: Record<string, Client> }).clients);
+    let signedOut = 0;
+    for (const client of clients) {
+      const principal = principals.get(client);
+      if (!principal || (principal.kind !== "plug" && principal.kind !== "sensor") || principal.site !== siteSlug) continue;
+      const stored = await options.lookupDeviceSecret(deviceUsername(principal.site, principal.kind, principal.device));
+      if (stored !== null && stored === signedInWith.get(client)) continue;
+      logger.info({ clientId: client.id, device: principal.device }, "device signed out: its credential was revoked or replaced");
+      client.close();
+      signedOut++;
+    }
+    return signedOut;
+  }
+
   let closing: Promise<void> | undefined;
   return {
     port,
     counts,
     link,
+    recheckDevices,
     close: () =>
       (closing ??= (async () => {
         await new Promise<void>((resolve) => aedes.close(() => resolve()));

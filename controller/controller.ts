@@ -224,6 +224,9 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
       wake(site) {
         if (served && !served.has(site)) return;
         reloadSoon(site);
+        broker
+          ?.recheckDevices(site)
+          .catch((error: unknown) => logger.error({ err: error, site }, "rechecking the site's device sign-ins failed"));
       },
     },
   });

@@ -5,7 +5,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { asc, eq } from "drizzle-orm";
 import type { MqttClient } from "mqtt";
 import { getDb } from "@/db/client";
-import { memberships, scheduleWindows, schedules, switchEvents } from "@/db/schema";
+import { issueDeviceCredential } from "@/db/device-credentials";
+import { deviceCredentials, memberships, scheduleWindows, schedules, switchEvents } from "@/db/schema";
 import { createController, type Controller } from "@/controller/controller";
 import type { PlugDevice } from "@/fakes/plug-device";
 import { deviceUsername } from "@/lib/mqtt/credentials";
@@ -69,6 +70,21 @@ describe("a change that affects control", () => {
       .orderBy(asc(switchEvents.id))
       .then((rows) => rows.slice(-1));
     expect(last).toMatchObject({ fromOn: true, toOn: false, cause: "safety", readingTempC: 18 });
+  });
+
+  it("a device whose credential is revoked is signed out at the site's wake-up, and cannot sign in again", async () => {
+    const { username, secret } = await issueDeviceCredential(getDb(), { siteId: site.siteId, siteSlug: site.slug, kind: "sensor", deviceId: "air-2" });
+    const other = await connectAs(controller.mqttUrl, username, secret);
+    const closed = new Promise<void>((resolve) => other.once("close", () => resolve()));
+    await getDb().update(deviceCredentials).set({ revokedAt: new Date() }).where(eq(deviceCredentials.username, username));
+    // Signed in before the revocation; a wake-up for another reason leaves it alone until then.
+    expect(other.connected).toBe(true);
+    expect(await wakeController(site.slug, { reason: "device" })).toBe(true);
+    await closed;
+    // The sensor of the first test, whose credential stands, is still connected.
+    expect(sensor.connected).toBe(true);
+    await expect(connectAs(controller.mqttUrl, username, secret)).rejects.toThrow(/Bad username or password/);
+    await other.endAsync(true);
   });
 
   it("a broker that is away does not fail or hold up the request's wake-up", async () => {
