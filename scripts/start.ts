@@ -1,6 +1,6 @@
 // `npm start`: a private MariaDB, migrations, the demo, a build when the sources
-// changed, and the web app on http://127.0.0.1:3000, with the controller and the
-// simulated devices. Each of those three is supervised: one that dies is restarted with
+// changed, and the web app on http://127.0.0.1:3000, with the controller, the
+// simulated devices and the local mail sink. Each of those is supervised: one that dies is restarted with
 // back-off while the others keep running (scripts/supervisor.ts). Ctrl-C stops all of it.
 import { DEV_DATABASE_FOLDER, LocalDatabaseError, devDatabasePort, startLocalDatabase, type LocalDatabase } from "./local-server";
 import { migrateDatabase } from "../db/migrate";
@@ -9,11 +9,15 @@ import { DEMO_MEMBERS, DEMO_SITE, seedDemo } from "../db/seed";
 import { writeDemoHistory } from "../fakes/demo-history";
 import { buildIsCurrent, markBuilt, sourceHash } from "./build-stamp";
 import { DEVICE_SECRETS_FILE, issueDemoDeviceSecrets } from "./demo-devices";
-import { bin, persistentSecret, portIsFree, root, run, say, waitForHttp, waitForPort } from "./common";
+import path from "node:path";
+import { bin, dataFolder, persistentSecret, portIsFree, root, run, say, waitForHttp, waitForPort } from "./common";
 import { superviseService, type Supervisor } from "./supervisor";
 
 const port = Number(process.env.PORT ?? 3000);
 const mqttPort = Number(process.env.CLOCHE_MQTT_PORT ?? 1886);
+// Derived from PORT by default, so two npm starts on different PORTs don't collide.
+const smtpPort = Number(process.env.CLOCHE_SMTP_PORT ?? port - 475);
+const mailFolder = path.join(dataFolder, "mail");
 const host = "127.0.0.1";
 const url = process.env.BETTER_AUTH_URL ?? `http://${host}:${port}`;
 
@@ -75,6 +79,10 @@ async function main() {
     CLOCHE_MQTT_CONTROLLER_SECRET: persistentSecret("mqtt-controller-secret", process.env.CLOCHE_MQTT_CONTROLLER_SECRET),
     CLOCHE_MQTT_WEBAPP_SECRET: persistentSecret("mqtt-webapp-secret", process.env.CLOCHE_MQTT_WEBAPP_SECRET),
     CLOCHE_DEVICE_SECRETS: DEVICE_SECRETS_FILE,
+    // Mail goes to the local sink, whose messages /dev/mail shows.
+    CLOCHE_SMTP_URL: `smtp://127.0.0.1:${smtpPort}`,
+    CLOCHE_MAIL_SINK_DIR: mailFolder,
+    CLOCHE_MAIL_SINK_PORT: String(smtpPort),
     NEXT_TELEMETRY_DISABLED: "1",
   };
 
@@ -88,6 +96,9 @@ async function main() {
     markBuilt(hash);
   }
 
+  if (!(await portIsFree(smtpPort, host))) {
+    throw new LocalDatabaseError(`Port ${smtpPort} on ${host} (the local mail sink) is in use. Choose another with CLOCHE_SMTP_PORT.`);
+  }
   if (!process.env.MQTT_URL && !(await portIsFree(mqttPort, host))) {
     throw new LocalDatabaseError(`Port ${mqttPort} on ${host} (the MQTT broker) is in use. Choose another with CLOCHE_MQTT_PORT.`);
   }
@@ -108,6 +119,9 @@ async function main() {
   const brokerUp = await waitForPort(Number(brokerUrl.port || 1883), brokerUrl.hostname, 60_000, () => controller.state !== "given-up");
   if (!brokerUp) throw new LocalDatabaseError(`the MQTT broker at ${env.CLOCHE_MQTT_URL} did not answer within 60 s.`);
   await supervise("fakes", process.execPath, ["--import", "tsx", "fakes/index.ts"], { ...env, MQTT_URL: env.CLOCHE_MQTT_URL });
+  const mailSink = await supervise("mail-sink", process.execPath, ["--import", "tsx", "fakes/mail-sink.ts"]);
+  const sinkUp = await waitForPort(smtpPort, host, 30_000, () => mailSink.state !== "given-up");
+  if (!sinkUp) say(`the mail sink did not answer on ${host}:${smtpPort}; invitations cannot be sent until it does.`);
   const web = await supervise("web", bin("next"), ["start", "--hostname", host, "--port", String(port)]);
 
   const ready = await waitForHttp(`${url}/api/health`, 60_000, () => web.state !== "given-up");
@@ -124,6 +138,7 @@ async function main() {
       "",
       database ? `  MariaDB: 127.0.0.1:${database.port} (data in .data/mariadb)` : "  MariaDB: DATABASE_URL",
       `  MQTT broker (in the controller): ${env.CLOCHE_MQTT_URL}; simulated plugs and sensors for the demo site`,
+      `  Mail (invitations) is kept, not delivered: read it at ${url}/dev/mail   (SMTP sink ${env.CLOCHE_SMTP_URL})`,
       "  Ctrl-C stops everything.",
       "",
     ].join("\n"),

@@ -1,12 +1,17 @@
-// `npm test`: a private MariaDB with a fresh database, migrations, type-check, lint,
-// then the unit and integration tests against that database.
+// `npm test`: a private MariaDB with a fresh database, a local mail sink, migrations,
+// type-check, lint, then the unit and integration tests against them.
 import { randomBytes } from "node:crypto";
+import { mkdtempSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
 import { LocalDatabaseError, TEST_DATABASE_FOLDER, startLocalDatabase, type LocalDatabase } from "./local-server";
 import { migrateDatabase } from "../db/migrate";
 import { bin, run, say } from "./common";
 import { ensureProgram } from "./debian";
+import { startMailSink, type MailSink } from "../fakes/mail-sink";
 
 let database: LocalDatabase | undefined;
+let mailSink: MailSink | undefined;
 
 async function main() {
   const began = Date.now();
@@ -15,6 +20,9 @@ async function main() {
   database = await startLocalDatabase({ folder: TEST_DATABASE_FOLDER, port: 0, database: "cloche_test", fresh: true, scratchDatabases: true });
   await migrateDatabase(database.url);
   say(`test database ready on 127.0.0.1:${database.port}`);
+  // Integration tests send mail through a sink of their own and read it back from its folder.
+  const mailFolder = mkdtempSync(path.join(tmpdir(), "cloche-test-mail-"));
+  mailSink = await startMailSink({ port: 0, folder: mailFolder });
 
   const env: NodeJS.ProcessEnv = {
     ...process.env,
@@ -22,6 +30,8 @@ async function main() {
     DATABASE_URL: database.url,
     BETTER_AUTH_URL: "http://127.0.0.1:3000",
     BETTER_AUTH_SECRET: randomBytes(32).toString("base64url"),
+    CLOCHE_SMTP_URL: mailSink.url,
+    CLOCHE_MAIL_SINK_DIR: mailSink.folder,
     NEXT_TELEMETRY_DISABLED: "1",
   };
 
@@ -52,6 +62,8 @@ let finished = false;
 async function finish(code: number) {
   if (finished) return;
   finished = true;
+  await mailSink?.close();
+  if (mailSink) rmSync(mailSink.folder, { recursive: true, force: true });
   await database?.stop();
   process.exit(code);
 }
