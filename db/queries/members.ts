@@ -28,8 +28,8 @@ async function ownerCount(tx: Tx, siteId: string): Promise<number> {
     .select({ n: sql<number>`COUNT(*)`.mapWith(Number) })
     .from(memberships)
     .where(and(eq(memberships.siteId, siteId), eq(memberships.role, "owner")))
-    // A locking read sees the latest committed rows, not the transaction's snapshot.
-    .for("share");
+    // A locking read sees the latest committed rows, not the transaction's snapshot (MariaDB has no FOR SHARE).
+    .for("update");
   return row?.n ?? 0;
 }
 

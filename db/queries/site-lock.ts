@@ -21,7 +21,7 @@ export async function lockSiteForMembers(tx: Tx, { siteId, actorId, action }: { 
     .from(memberships)
     .where(eqMember(siteId, actorId))
     .limit(1)
-    .for("share");
+    .for("update");
   if (!actor) throw new AppError("not_found", "No such site.");
   if (!can(actor.role, action)) {
     throw new AppError("forbidden", `Your role (${actor.role}) does not allow this (${action}).`);
