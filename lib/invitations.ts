@@ -40,7 +40,7 @@ export type InvitationMailFacts = {
   timeZone: string;
 };
 
-/** "Friday 14 March 2026, 18:00 (Europe/London)": the site's wall clock, with its zone named. */
+/** "Saturday, 14 March 2026 at 18:00 (Europe/London)": the site's wall clock, with its zone named. */
 export function formatInSiteZone(at: Date, timeZone: string): string {
   const local = new Intl.DateTimeFormat("en-GB", {
     timeZone,
