@@ -116,3 +116,70 @@ export const TEMPERATURE_UNIT_LABELS: Record<TemperatureUnit, string> = { c: "°
 
 /** How long an invitation link stays usable. */
 export const INVITATION_TTL_HOURS = 72;
+
+/** What an entry in the audit trail is about (audit_log.entity_type), for the activity page. */
+export const AUDIT_ENTITY_LABELS: Record<string, string> = {
+  site: "Site settings",
+  house: "House",
+  plug: "Plug",
+  sensor: "Sensor",
+  credential: "Device credential",
+  schedule: "Schedule",
+  window: "Time window",
+  exception: "Date exception",
+  override: "Override",
+  member: "Member",
+  invitation: "Invitation",
+  tariff: "Tariff",
+  settings: "Personal settings",
+};
+
+/**
+ * What was done (audit_log.action, `<entity>.<verb>`). An action missing here is shown
+ * by its entity's label and its verb (see describeAuditAction), so a new one never
+ * breaks the page.
+ */
+export const AUDIT_ACTION_LABELS: Record<string, string> = {
+  "site.create": "Created the site",
+  "site.update": "Changed the site settings",
+  "house.create": "Added a house",
+  "house.update": "Changed a house",
+  "house.delete": "Removed a house",
+  "plug.create": "Added a plug",
+  "plug.update": "Changed a plug",
+  "plug.retire": "Retired a plug",
+  "sensor.create": "Added a sensor",
+  "sensor.update": "Changed a sensor",
+  "sensor.retire": "Retired a sensor",
+  "credential.issue": "Issued a device secret",
+  "credential.revoke": "Revoked a device secret",
+  "schedule.create": "Added a schedule",
+  "schedule.update": "Changed a schedule",
+  "schedule.delete": "Removed a schedule",
+  "override.create": "Overrode a plug",
+  "override.cancel": "Cancelled an override",
+  "member.join": "Joined by invitation",
+  "member.role": "Changed a member's role",
+  "member.remove": "Removed a member",
+  "invitation.create": "Invited someone",
+  "invitation.resend": "Sent an invitation again",
+  "invitation.withdraw": "Withdrew an invitation",
+};
+
+/** Names of changed fields on the activity page; others are spelled out from their key. */
+export const AUDIT_FIELD_LABELS: Record<string, string> = {
+  name: "Name",
+  email: "E-mail",
+  role: "Role",
+  slug: "Address",
+  siteName: "Site name",
+  timeZone: "Time zone",
+  currency: "Currency",
+  mainsVoltage: "Mains voltage (V)",
+  continuousLoadPercent: "Continuous-load margin (%)",
+  lowLimitC: "Low safety limit (°C)",
+  highLimitC: "High safety limit (°C)",
+  applianceWatts: "Appliance (W)",
+  ratedCurrentA: "Plug rating (A)",
+  expiresAt: "Expires",
+};

@@ -1,7 +1,7 @@
 // The running product on one machine, started one way for `npm start` and for the
 // browser journeys of `npm test`: migrations and the demo in a database, a build when
-// the sources changed, then the controller (with its broker), the simulated devices and
-// the web app, each supervised (scripts/supervisor.ts).
+// the sources changed, then the controller (with its broker), the simulated devices, the
+// local mail sink and the web app, each supervised (scripts/supervisor.ts).
 import { migrateDatabase } from "../db/migrate";
 import { connect } from "../db/client";
 import { DEMO_SITE, seedDemo } from "../db/seed";
@@ -17,6 +17,9 @@ export type StackOptions = {
   host: string;
   port: number;
   mqttPort: number;
+  /** The local mail sink's SMTP port, and the folder where it keeps what it receives (/dev/mail shows it). */
+  smtpPort: number;
+  mailFolder: string;
   /** An external broker instead of the controller's own (MQTT_URL). */
   mqttUrl?: string;
   /** Days of demo history to write once (0: none). */
@@ -91,11 +94,18 @@ export async function startStack(options: StackOptions): Promise<Stack> {
     CLOCHE_MQTT_CONTROLLER_SECRET: persistentSecret("mqtt-controller-secret", process.env.CLOCHE_MQTT_CONTROLLER_SECRET),
     CLOCHE_MQTT_WEBAPP_SECRET: persistentSecret("mqtt-webapp-secret", process.env.CLOCHE_MQTT_WEBAPP_SECRET),
     CLOCHE_DEVICE_SECRETS: deviceSecretsFile,
+    // Mail goes to the local sink, whose messages /dev/mail shows.
+    CLOCHE_SMTP_URL: `smtp://127.0.0.1:${options.smtpPort}`,
+    CLOCHE_MAIL_SINK_DIR: options.mailFolder,
+    CLOCHE_MAIL_SINK_PORT: String(options.smtpPort),
     NEXT_TELEMETRY_DISABLED: "1",
     ...options.env,
   };
   await ensureBuilt(env);
 
+  if (!(await portIsFree(options.smtpPort, host))) {
+    throw new LocalDatabaseError(`Port ${options.smtpPort} on ${host} (the local mail sink) is in use. Choose another with CLOCHE_SMTP_PORT.`);
+  }
   if (!options.mqttUrl && !(await portIsFree(mqttPort, host))) {
     throw new LocalDatabaseError(`Port ${mqttPort} on ${host} (the MQTT broker) is in use. Choose another with CLOCHE_MQTT_PORT.`);
   }
@@ -123,6 +133,9 @@ export async function startStack(options: StackOptions): Promise<Stack> {
     const brokerUp = await waitForPort(Number(brokerUrl.port || 1883), brokerUrl.hostname, 60_000, () => controller.state !== "given-up");
     if (!brokerUp) throw new LocalDatabaseError(`the MQTT broker at ${mqttUrl} did not answer within 60 s.`);
     await supervise("fakes", process.execPath, ["--import", "tsx", "fakes/index.ts"], { ...env, MQTT_URL: mqttUrl });
+    const mailSink = await supervise("mail-sink", process.execPath, ["--import", "tsx", "fakes/mail-sink.ts"]);
+    const sinkUp = await waitForPort(options.smtpPort, host, 30_000, () => mailSink.state !== "given-up");
+    if (!sinkUp) say(`the mail sink did not answer on ${host}:${options.smtpPort}; invitations cannot be sent until it does.`);
     const web = await supervise("web", bin("next"), ["start", "--hostname", host, "--port", String(port)]);
     const ready = await waitForHttp(`${url}/api/health`, 60_000, () => web.state !== "given-up");
     if (!ready) throw new LocalDatabaseError("the web app did not answer /api/health within 60 s.");

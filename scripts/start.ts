@@ -1,15 +1,18 @@
 // `npm start`: a private MariaDB, migrations, the demo, a build when the sources
-// changed, and the web app on http://127.0.0.1:3000, with the controller and the
-// simulated devices. Each of those three is supervised: one that dies is restarted with
+// changed, and the web app on http://127.0.0.1:3000, with the controller, the
+// simulated devices and the local mail sink. Each of those is supervised: one that dies is restarted with
 // back-off while the others keep running (scripts/supervisor.ts, scripts/stack.ts).
 // Ctrl-C stops all of it.
 import { DEV_DATABASE_FOLDER, LocalDatabaseError, devDatabasePort, startLocalDatabase, type LocalDatabase } from "./local-server";
 import { DEMO_MEMBERS, DEMO_SITE } from "../db/seed";
-import { say } from "./common";
+import path from "node:path";
+import { dataFolder, say } from "./common";
 import { startStack, type Stack } from "./stack";
 
 const port = Number(process.env.PORT ?? 3000);
 const mqttPort = Number(process.env.CLOCHE_MQTT_PORT ?? 1886);
+// Derived from PORT by default, so two npm starts on different PORTs don't collide.
+const smtpPort = Number(process.env.CLOCHE_SMTP_PORT ?? port - 475);
 const host = "127.0.0.1";
 
 let database: LocalDatabase | undefined;
@@ -45,6 +48,8 @@ async function main() {
     host,
     port,
     mqttPort,
+    smtpPort,
+    mailFolder: path.join(dataFolder, "mail"),
     mqttUrl: process.env.MQTT_URL,
     historyDays: 60,
     onGaveUp: (name, all) => {
@@ -65,6 +70,7 @@ async function main() {
       "",
       database ? `  MariaDB: 127.0.0.1:${database.port} (data in .data/mariadb)` : "  MariaDB: DATABASE_URL",
       `  MQTT broker (in the controller): ${env.CLOCHE_MQTT_URL}; simulated plugs and sensors for the demo site`,
+      `  Mail (invitations) is kept, not delivered: read it at ${url}/dev/mail   (SMTP sink ${env.CLOCHE_SMTP_URL})`,
       "  Ctrl-C stops everything.",
       "",
     ].join("\n"),

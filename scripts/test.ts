@@ -1,7 +1,9 @@
-// `npm test`: a private MariaDB with a fresh database, migrations, type-check, lint,
-// the unit, component and integration tests against that database, then the browser
-// journeys against the whole product started as `npm start` starts it.
+// `npm test`: a private MariaDB with a fresh database, a local mail sink, migrations,
+// type-check, lint, the unit, component and integration tests against them, then the
+// browser journeys against the whole product started as `npm start` starts it.
 import { randomBytes } from "node:crypto";
+import { mkdtempSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
 import path from "node:path";
 import mysql from "mysql2/promise";
 import { LocalDatabaseError, TEST_DATABASE_FOLDER, freePort, startLocalDatabase, type LocalDatabase } from "./local-server";
@@ -9,9 +11,18 @@ import { migrateDatabase } from "../db/migrate";
 import { bin, dataFolder, run, say } from "./common";
 import { ensureProgram } from "./debian";
 import { startStack, type Stack } from "./stack";
+import { startMailSink, type MailSink } from "../fakes/mail-sink";
 
 let database: LocalDatabase | undefined;
 let stack: Stack | undefined;
+let mailSink: MailSink | undefined;
+const scratchFolders: string[] = [];
+
+function scratchFolder(name: string) {
+  const folder = mkdtempSync(path.join(tmpdir(), `cloche-test-${name}-`));
+  scratchFolders.push(folder);
+  return folder;
+}
 
 const BROWSER_FOLDER = "tests/browser";
 const args = process.argv.slice(2);
@@ -46,6 +57,8 @@ async function browserJourneys(env: NodeJS.ProcessEnv): Promise<number> {
     host,
     port,
     mqttPort: await freePort(),
+    smtpPort: await freePort(),
+    mailFolder: scratchFolder("browser-mail"),
     historyDays: 2,
     deviceSecretsFile: path.join(dataFolder, "device-secrets.browser-tests.json"),
     // Every journey signs in; the per-address sign-in limit would otherwise throttle them.
@@ -71,6 +84,8 @@ async function main() {
   database = await startLocalDatabase({ folder: TEST_DATABASE_FOLDER, port: 0, database: "cloche_test", fresh: true, scratchDatabases: true });
   await migrateDatabase(database.url);
   say(`test database ready on 127.0.0.1:${database.port}`);
+  // Integration tests send mail through a sink of their own and read it back from its folder.
+  mailSink = await startMailSink({ port: 0, folder: scratchFolder("mail") });
 
   const env: NodeJS.ProcessEnv = {
     ...process.env,
@@ -78,6 +93,8 @@ async function main() {
     DATABASE_URL: database.url,
     BETTER_AUTH_URL: "http://127.0.0.1:3000",
     BETTER_AUTH_SECRET: randomBytes(32).toString("base64url"),
+    CLOCHE_SMTP_URL: mailSink.url,
+    CLOCHE_MAIL_SINK_DIR: mailSink.folder,
     NEXT_TELEMETRY_DISABLED: "1",
   };
 
@@ -113,6 +130,8 @@ async function finish(code: number) {
   if (finished) return;
   finished = true;
   await stack?.stop();
+  await mailSink?.close();
+  for (const folder of scratchFolders) rmSync(folder, { recursive: true, force: true });
   await database?.stop();
   process.exit(code);
 }

@@ -12,7 +12,7 @@ import { authClient } from "@/lib/client/auth-client";
 import { signInSchema } from "@/lib/schemas/account";
 import { authErrorMessage } from "./auth-error-message";
 
-export function SignInForm() {
+export function SignInForm({ next = "/" }: { next?: string }) {
   const router = useRouter();
   const [serverError, setServerError] = useState<string | null>(null);
   const {
@@ -33,7 +33,7 @@ export function SignInForm() {
       setServerError(authErrorMessage({}, "Could not sign you in."));
       return;
     }
-    router.push("/");
+    router.push(next);
     router.refresh();
   });
 

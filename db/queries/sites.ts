@@ -105,9 +105,10 @@ export async function createSiteForOwner({ userId, site }: { userId: string; sit
   throw new AppError("conflict", "Could not find a free address for this site; try another name.");
 }
 
+/** The site's members, by name, with the day each joined (`since`). */
 export async function getMembersOfSite({ siteId }: { siteId: string }) {
   return getDb()
-    .select({ id: memberships.id, userId: user.id, name: user.name, email: user.email, role: memberships.role })
+    .select({ id: memberships.id, userId: user.id, name: user.name, email: user.email, role: memberships.role, since: memberships.createdAt })
     .from(memberships)
     .innerJoin(user, eq(user.id, memberships.userId))
     .where(eq(memberships.siteId, siteId))

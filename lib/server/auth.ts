@@ -7,6 +7,9 @@ import { randomUUID } from "node:crypto";
 import { getDb } from "@/db/client";
 import * as schema from "@/db/schema";
 import { createSiteForOwner } from "@/db/queries/sites";
+import { assertUsable, getInvitationByToken } from "@/db/queries/invitations";
+import { AppError } from "@/lib/errors";
+import { invitationToken } from "@/lib/schemas/members";
 import { env, trustedOrigins } from "./env";
 import { firstIssue } from "./http";
 import { newSiteSchema } from "@/lib/schemas/account";
@@ -22,6 +25,28 @@ function siteFromSignUp(body: Record<string, unknown>, name: string) {
     currency: parsed.currency ?? "GBP",
   };
 }
+
+/**
+ * A sign-up that carries an invitation's token makes the invited person's account
+ * without a site of its own: they join the inviting site by accepting next. The token
+ * must be usable and the e-mail the invited one, or nothing is created.
+ */
+async function checkInvitedSignUp(body: Record<string, unknown>) {
+  const token = invitationToken.safeParse(body.invitationToken);
+  if (!token.success) throw new APIError("BAD_REQUEST", { message: firstIssue(token.error).message, code: "BAD_INPUT" });
+  const invitation = await getInvitationByToken({ token: token.data });
+  try {
+    assertUsable(invitation);
+  } catch (error) {
+    throw new APIError("BAD_REQUEST", { message: (error as AppError).message, code: "INVITATION_NOT_USABLE" });
+  }
+  const email = typeof body.email === "string" ? body.email.trim().toLowerCase() : "";
+  if (invitation!.email !== email) {
+    throw new APIError("BAD_REQUEST", { message: `email: this invitation is for ${invitation!.email}`, code: "BAD_INPUT" });
+  }
+}
+
+const isInvitedSignUp = (body: Record<string, unknown>) => body.invitationToken !== undefined;
 
 function createAuth() {
   const e = env();
@@ -53,6 +78,7 @@ function createAuth() {
       before: createAuthMiddleware(async (ctx) => {
         if (ctx.path !== "/sign-up/email") return;
         const body = (ctx.body ?? {}) as Record<string, unknown>;
+        if (isInvitedSignUp(body)) return checkInvitedSignUp(body);
         const parsed = signUpSiteSchema.safeParse({ siteName: body.siteName, timeZone: body.timeZone, currency: body.currency });
         if (!parsed.success) {
           throw new APIError("BAD_REQUEST", { message: firstIssue(parsed.error).message, code: "BAD_INPUT" });
@@ -64,6 +90,7 @@ function createAuth() {
         create: {
           after: async (created, ctx) => {
             const body = (ctx?.body ?? {}) as Record<string, unknown>;
+            if (isInvitedSignUp(body)) return;
             await createSiteForOwner({ userId: created.id, site: siteFromSignUp(body, created.name) });
           },
         },

@@ -17,7 +17,28 @@ const schema = z.object({
   CLOCHE_MQTT_URL: z.string().regex(/^mqtts?:\/\//, "CLOCHE_MQTT_URL must be an mqtt:// URL").default("mqtt://127.0.0.1:1886"),
   /** The web app's MQTT secret; without it the app does not wake the controller (it still reloads every 30 s). */
   CLOCHE_MQTT_WEBAPP_SECRET: z.string().min(16).optional(),
+  /** Where mail goes (smtp://[user:pass@]host:port, or smtps://); without it no mail is sent. */
+  CLOCHE_SMTP_URL: z.string().regex(/^smtps?:\/\/[^/]+/, "CLOCHE_SMTP_URL must be an smtp:// or smtps:// URL").optional(),
+  /** The sender of Cloche's mail. */
+  CLOCHE_MAIL_FROM: z.string().min(3).default("Cloche <no-reply@cloche.localhost>"),
+  /**
+   * The local SMTP sink's folder (fakes/mail-sink.ts). Set by npm start and npm test
+   * only; /dev/mail shows its messages and is a 404 without it.
+   */
+  CLOCHE_MAIL_SINK_DIR: z.string().min(1).optional(),
+}).refine((e) => !e.CLOCHE_MAIL_SINK_DIR || (e.CLOCHE_SMTP_URL !== undefined && isLoopbackSmtp(e.CLOCHE_SMTP_URL)), {
+  path: ["CLOCHE_MAIL_SINK_DIR"],
+  message: "CLOCHE_MAIL_SINK_DIR is for the local mail sink: CLOCHE_SMTP_URL must then point at 127.0.0.1, ::1 or localhost",
 });
+
+/** True for an SMTP server on this machine (the local sink); only those skip TLS. */
+export function isLoopbackSmtp(url: string): boolean {
+  try {
+    return ["127.0.0.1", "localhost", "[::1]"].includes(new URL(url).hostname);
+  } catch {
+    return false;
+  }
+}
 
 export type Env = z.infer<typeof schema>;
 

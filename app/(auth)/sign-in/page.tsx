@@ -8,8 +8,16 @@ import { getSessionUser } from "@/lib/server/session";
 
 export const metadata: Metadata = { title: "Sign in" };
 
-export default async function SignInPage() {
-  if (await getSessionUser(await headers())) redirect("/");
+type Props = { searchParams: Promise<{ next?: string | string[] }> };
+
+/** Where to go after signing in: a path of this app only (an invitation's page, say). */
+function localPath(next: string | string[] | undefined): string {
+  return typeof next === "string" && /^\/(?![/\\])/.test(next) ? next : "/";
+}
+
+export default async function SignInPage({ searchParams }: Props) {
+  const next = localPath((await searchParams).next);
+  if (await getSessionUser(await headers())) redirect(next);
   return (
     <AuthPanel
       title="Sign in"
@@ -23,7 +31,7 @@ export default async function SignInPage() {
         </>
       }
     >
-      <SignInForm />
+      <SignInForm next={next} />
     </AuthPanel>
   );
 }
