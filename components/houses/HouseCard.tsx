@@ -4,6 +4,7 @@ import { GLAZING_LABELS, HOUSE_KIND_LABELS, type Role } from "@/lib/domain";
 import { can } from "@/lib/permissions";
 import { Card } from "@/components/ui/Card";
 import { formatMetres } from "./format";
+import { HouseChart } from "./HouseChart";
 import { HouseAlerts } from "./LiveAlerts";
 import { LiveReadings } from "./LiveReadings";
 import { PlugList } from "./PlugList";
@@ -38,6 +39,8 @@ export function HouseCard({ house, slug, role, timeZone, mainsVoltage, continuou
         houseName={house.name}
         sensors={house.sensors.map(({ id, name, lastSeenAt, staleAfterS }) => ({ id, name, lastSeenAt, staleAfterS }))}
       />
+
+      <HouseChart houseId={house.id} houseName={house.name} hasSensor={house.sensors.length > 0} />
 
       <section aria-label={`Plugs in ${house.name}`}>
         <h3 className="mb-2 text-xs font-semibold uppercase tracking-wide text-frost-600">Plugs</h3>
