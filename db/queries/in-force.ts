@@ -34,20 +34,24 @@ export async function getInForceByPlug({
     plugs.map((p) => p.id),
     now,
   );
-  const plans = plugs.map((plug) => ({
-    plugId: plug.id,
-    plan: inForceAt(
-      {
-        schedules: loaded.schedules.filter((s) => s.plugId === plug.id),
-        timeZone,
-        outsideWindows: plug.outsideWindows,
-        frostLowC: plug.frostLowC,
-        frostHighC: plug.frostHighC,
-        overrides: loaded.overrides.filter((o) => o.plugId === plug.id),
-      },
-      now,
-    ),
-  }));
+  const plans = plugs.flatMap((plug) => {
+    const input = {
+      schedules: loaded.schedules.filter((s) => s.plugId === plug.id),
+      timeZone,
+      outsideWindows: plug.outsideWindows,
+      frostLowC: plug.frostLowC,
+      frostHighC: plug.frostHighC,
+      overrides: loaded.overrides.filter((o) => o.plugId === plug.id),
+    };
+    try {
+      return [{ plugId: plug.id, plan: inForceAt(input, now) }];
+    } catch (error) {
+      // A stored window the schedule code refuses (lib/schedule throws RangeError) must
+      // not take the whole overview down: that plug's line is left out, not guessed.
+      if (error instanceof RangeError) return [];
+      throw error;
+    }
+  });
 
   const rules = plans.flatMap(({ plan }) => (plan.next ? [plan.rule, plan.next] : [plan.rule]));
   const scheduleIds = [...new Set(rules.flatMap((r) => (r.kind === "window" ? [r.scheduleId] : [])))];

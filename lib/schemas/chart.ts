@@ -4,7 +4,7 @@ import { houseParams } from "./house";
 
 /** `?range=24h|7d` of a house's chart; 24 hours when it is left out. */
 export const chartRange = z
-  .enum(CHART_RANGE_KEYS as [ChartRange, ...ChartRange[]], { error: `range must be ${CHART_RANGE_KEYS.join(" or ")}` })
+  .enum(CHART_RANGE_KEYS as [ChartRange, ...ChartRange[]], { error: `must be ${CHART_RANGE_KEYS.join(" or ")}` })
   .default("24h");
 
 /** A house's chart: the route's segments and its `range` query, parsed together and first. */
