@@ -124,3 +124,16 @@ export function summarise(values: (number | null)[]): SeriesSummary {
   }
   return { min, max, latest };
 }
+
+/** Total time covered by periods that may overlap (two heaters on together count once). */
+export function coveredMs(periods: { from: number; until: number }[]): number {
+  const sorted = [...periods].sort((a, b) => a.from - b.from);
+  let total = 0;
+  let end = -Infinity;
+  for (const p of sorted) {
+    const start = Math.max(p.from, end);
+    if (p.until > start) total += p.until - start;
+    end = Math.max(end, p.until);
+  }
+  return total;
+}

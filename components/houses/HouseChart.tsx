@@ -4,12 +4,11 @@ import dynamic from "next/dynamic";
 import { useContext, useMemo, useState } from "react";
 import useSWR from "swr";
 import type { HouseChart as HouseChartData } from "@/db/queries/house-chart";
-import { CHART_RANGE_KEYS, CHART_RANGES, summarise, type ChartRange } from "@/lib/house-chart";
+import { CHART_RANGE_KEYS, CHART_RANGES, type ChartRange } from "@/lib/house-chart";
 import { toUnit, unitSymbol } from "@/lib/units";
 import type { TemperatureUnit } from "@/lib/domain";
 import { useTemperatureUnit } from "@/components/site/TemperatureUnit";
-import { CHART_COLOURS, CHART_HEIGHT, type ChartPicture } from "./chart-picture";
-import { formatRh, formatTemp } from "./live-format";
+import { CHART_COLOURS, CHART_HEIGHT, chartSummary, type ChartPicture } from "./chart-picture";
 import { LiveSiteContext } from "./use-site-live";
 
 // uPlot and its stylesheet load after the page has painted, in their own chunk.
@@ -52,48 +51,6 @@ export function toPicture(chart: HouseChartData, unit: TemperatureUnit, timeZone
     bands: chart.bands.map((b) => ({ from: b.from, until: b.until, low: inUnit(b.lowC), high: inUnit(b.highC) })),
     heating: chart.heaters.flatMap((h) => h.periods),
   };
-}
-
-/** Total time covered by periods that may overlap (two heaters on together count once). */
-export function coveredMs(periods: { from: number; until: number }[]): number {
-  const sorted = [...periods].sort((a, b) => a.from - b.from);
-  let total = 0;
-  let end = -Infinity;
-  for (const p of sorted) {
-    const start = Math.max(p.from, end);
-    if (p.until > start) total += p.until - start;
-    end = Math.max(end, p.until);
-  }
-  return total;
-}
-
-function hoursAndMinutes(ms: number): string {
-  const minutes = Math.round(ms / 60_000);
-  const h = Math.floor(minutes / 60);
-  const m = minutes % 60;
-  if (h === 0) return `${m} min`;
-  return m === 0 ? `${h} h` : `${h} h ${m} min`;
-}
-
-/** The chart in words: lowest, highest and latest temperature and humidity, and heating time. */
-export function chartSummary(chart: HouseChartData, unit: TemperatureUnit): string {
-  const symbol = unitSymbol(unit);
-  const t = (c: number) => `${formatTemp(toUnit(c, unit))} ${symbol}`;
-  const low = summarise(chart.series.tempMinC).min;
-  const high = summarise(chart.series.tempMaxC).max;
-  const latest = summarise(chart.series.tempC).latest;
-  const rh = summarise(chart.series.rh);
-  const parts: string[] = [];
-  if (low === null || high === null) parts.push("No readings in this time.");
-  else parts.push(`Temperature ${t(low)} to ${t(high)}${latest !== null ? `, latest ${t(latest)}` : ""}.`);
-  if (rh.min !== null && rh.max !== null) {
-    parts.push(`Humidity ${formatRh(rh.min)} to ${formatRh(rh.max)}${rh.latest !== null ? `, latest ${formatRh(rh.latest)}` : ""}.`);
-  }
-  if (chart.heaters.length > 0) {
-    const on = coveredMs(chart.heaters.flatMap((h) => h.periods));
-    parts.push(on > 0 ? `Heating on for ${hoursAndMinutes(on)} in all.` : "Heating off throughout.");
-  }
-  return parts.join(" ");
 }
 
 function Swatch({ style, className = "" }: { style: React.CSSProperties; className?: string }) {

@@ -1,4 +1,8 @@
-import type { ChartRange } from "@/lib/house-chart";
+import type { HouseChart } from "@/db/queries/house-chart";
+import type { TemperatureUnit } from "@/lib/domain";
+import { coveredMs, summarise, type ChartRange } from "@/lib/house-chart";
+import { toUnit, unitSymbol } from "@/lib/units";
+import { formatRh, formatTemp } from "./live-format";
 
 /** What the chart draws, already in the person's unit; times in ms. Kept apart from uPlot so the page can name it without loading uPlot. */
 export type ChartPicture = {
@@ -22,3 +26,32 @@ export const CHART_COLOURS = {
 } as const;
 
 export const CHART_HEIGHT = 220;
+
+function hoursAndMinutes(ms: number): string {
+  const minutes = Math.round(ms / 60_000);
+  const h = Math.floor(minutes / 60);
+  const m = minutes % 60;
+  if (h === 0) return `${m} min`;
+  return m === 0 ? `${h} h` : `${h} h ${m} min`;
+}
+
+/** The chart in words: lowest, highest and latest temperature and humidity, and heating time. */
+export function chartSummary(chart: HouseChart, unit: TemperatureUnit): string {
+  const symbol = unitSymbol(unit);
+  const t = (c: number) => `${formatTemp(toUnit(c, unit))} ${symbol}`;
+  const low = summarise(chart.series.tempMinC).min;
+  const high = summarise(chart.series.tempMaxC).max;
+  const latest = summarise(chart.series.tempC).latest;
+  const rh = summarise(chart.series.rh);
+  const parts: string[] = [];
+  if (low === null || high === null) parts.push("No readings in this time.");
+  else parts.push(`Temperature ${t(low)} to ${t(high)}${latest !== null ? `, latest ${t(latest)}` : ""}.`);
+  if (rh.min !== null && rh.max !== null) {
+    parts.push(`Humidity ${formatRh(rh.min)} to ${formatRh(rh.max)}${rh.latest !== null ? `, latest ${formatRh(rh.latest)}` : ""}.`);
+  }
+  if (chart.heaters.length > 0) {
+    const on = coveredMs(chart.heaters.flatMap((h) => h.periods));
+    parts.push(on > 0 ? `Heating on for ${hoursAndMinutes(on)} in all.` : "Heating off throughout.");
+  }
+  return parts.join(" ");
+}

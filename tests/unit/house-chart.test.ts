@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { PlanSegment } from "@/lib/control/plan";
-import { bandSteps, bucketStarts, onPeriods, placeOnGrid, summarise, type SwitchRow } from "@/lib/house-chart";
+import { bandSteps, bucketStarts, coveredMs, onPeriods, placeOnGrid, summarise, type SwitchRow } from "@/lib/house-chart";
 
 const MIN = 60_000;
 const t0 = Date.parse("2030-03-01T00:00:00Z");
@@ -98,5 +98,12 @@ describe("summarise", () => {
   it("min, max and latest over the gaps", () => {
     expect(summarise([null, 4, 2, null, 7, 5, null])).toEqual({ min: 2, max: 7, latest: 5 });
     expect(summarise([null, null])).toEqual({ min: null, max: null, latest: null });
+  });
+});
+
+describe("coveredMs", () => {
+  it("counts overlapping periods once (two heaters on together)", () => {
+    expect(coveredMs([{ from: 0, until: 10 }, { from: 5, until: 20 }, { from: 30, until: 40 }, { from: 32, until: 35 }])).toBe(30);
+    expect(coveredMs([])).toBe(0);
   });
 });
