@@ -5,7 +5,10 @@ import { can } from "@/lib/permissions";
 const link =
   "inline-flex min-h-11 items-center rounded-lg border border-frost-300 bg-white px-3 text-sm font-semibold text-frost-900 hover:bg-frost-100";
 
-/** Where a person may go from a plug: switch it for a while, or its weekly schedule. */
+/**
+ * Where a person may go from a plug: switch it for a while, or its weekly schedule.
+ * Not prefetched: a house of plugs would otherwise fetch every plug's pages on a phone.
+ */
 export function PlugLinks({ slug, plugId, plugName, role }: { slug: string; plugId: string; plugName: string; role: Role }) {
   const base = `/sites/${encodeURIComponent(slug)}/plugs/${encodeURIComponent(plugId)}`;
   const override = can(role, "overrides.create");
@@ -14,12 +17,12 @@ export function PlugLinks({ slug, plugId, plugName, role }: { slug: string; plug
   return (
     <div className="mt-2 flex flex-wrap gap-2">
       {override ? (
-        <Link href={`${base}/override`} className={link} aria-label={`Switch ${plugName} for a while`}>
+        <Link href={`${base}/override`} prefetch={false} className={link} aria-label={`Switch ${plugName} for a while`}>
           Switch for a while
         </Link>
       ) : null}
       {schedule ? (
-        <Link href={`${base}/schedule`} className={link} aria-label={`Schedule of ${plugName}`}>
+        <Link href={`${base}/schedule`} prefetch={false} className={link} aria-label={`Schedule of ${plugName}`}>
           Schedule
         </Link>
       ) : null}
