@@ -17,13 +17,13 @@ export function PlugLinks({ slug, plugId, plugName, role }: { slug: string; plug
   return (
     <div className="mt-2 flex flex-wrap gap-2">
       {override ? (
-        <Link href={`${base}/override`} prefetch={false} className={link} aria-label={`Switch ${plugName} for a while`}>
-          Switch for a while
+        <Link href={`${base}/override`} prefetch={false} className={link}>
+          Switch for a while<span className="sr-only">: {plugName}</span>
         </Link>
       ) : null}
       {schedule ? (
-        <Link href={`${base}/schedule`} prefetch={false} className={link} aria-label={`Schedule of ${plugName}`}>
-          Schedule
+        <Link href={`${base}/schedule`} prefetch={false} className={link}>
+          Schedule<span className="sr-only"> of {plugName}</span>
         </Link>
       ) : null}
     </div>
