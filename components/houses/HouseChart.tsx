@@ -71,16 +71,15 @@ export function HouseChart({ houseId, houseName, hasSensor }: HouseChartProps) {
   );
   const timeZone = site?.timeZone ?? "UTC";
   const picture = useMemo(() => (data && data.range === range ? toPicture(data, unit, timeZone) : null), [data, range, unit, timeZone]);
-  const headingId = `chart-${houseId}`;
 
   if (!hasSensor) {
     return <p className="text-sm text-frost-600">No chart: this house has no sensor to read temperature and humidity from.</p>;
   }
 
   return (
-    <section aria-labelledby={headingId} className="flex flex-col gap-2">
+    <section aria-label={`Temperature and humidity chart of ${houseName}`} className="flex flex-col gap-2">
       <div className="flex flex-wrap items-center justify-between gap-2">
-        <h3 id={headingId} className="text-xs font-semibold uppercase tracking-wide text-frost-600">
+        <h3 className="text-xs font-semibold uppercase tracking-wide text-frost-600">
           Last {CHART_RANGES[range].label}
         </h3>
         <div role="group" aria-label={`Chart period for ${houseName}`} className="inline-flex rounded-lg border border-frost-300 bg-white p-0.5">

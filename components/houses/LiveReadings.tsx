@@ -84,14 +84,14 @@ function SensorReading({ label, houseName, reading, staleAfterS, now, timeZone }
           {latest.tempC !== null ? (
             <span className={`text-4xl font-semibold tracking-tight ${stale ? "text-frost-500" : "text-frost-950"}`}>
               {inUnit(latest.tempC, unit)}
-              <span className="ml-0.5 text-xl font-medium text-frost-500">{unitSymbol(unit)}</span>
+              <span className="ml-0.5 text-xl font-medium text-frost-600">{unitSymbol(unit)}</span>
             </span>
           ) : (
             <span className="text-base text-frost-600">No temperature in the last reading</span>
           )}
           {latest.rh !== null ? (
             <span className="text-base text-frost-700">
-              {formatRh(latest.rh)} <span className="text-sm text-frost-500">RH</span>
+              {formatRh(latest.rh)} <span className="text-sm text-frost-600">RH</span>
             </span>
           ) : null}
         </p>
@@ -174,7 +174,7 @@ function DayRange({ minC, maxC, nowC, rhMin, rhMax, unit }: DayRangeProps) {
           <span className="text-frost-400">↑</span> {inUnit(maxC, unit)}°
         </span>
       </div>
-      <p aria-hidden="true" className="mt-1 flex justify-between text-[11px] text-frost-500">
+      <p aria-hidden="true" className="mt-1 flex justify-between text-xs text-frost-600">
         <span>last 24 h</span>
         {rhMin !== null && rhMax !== null ? (
           <span className="tabular-nums">

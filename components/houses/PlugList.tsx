@@ -28,7 +28,7 @@ export function PlugList({ plugs, slug, role, timeZone, mainsVoltage, continuous
           <div className="mt-1 flex flex-wrap items-baseline justify-between gap-x-3 gap-y-0.5">
             <p className="text-xs text-frost-600">
               {APPLIANCE_KIND_LABELS[plug.applianceKind]} · {formatWatts(plug.applianceWatts)}
-              <span className="text-frost-500"> · {formatAmps(plug.ratedCurrentA)} plug</span>
+              <span className="text-frost-600"> · {formatAmps(plug.ratedCurrentA)} plug</span>
             </p>
             <LiveDeviceStatus device="plug" id={plug.id} online={plug.online} lastSeenAt={plug.lastSeenAt} timeZone={timeZone} />
           </div>
