@@ -1,15 +1,25 @@
+import Link from "next/link";
 import type { HouseOverview } from "@/db/queries/houses";
-import { GLAZING_LABELS, HOUSE_KIND_LABELS } from "@/lib/domain";
+import { GLAZING_LABELS, HOUSE_KIND_LABELS, type Role } from "@/lib/domain";
+import { can } from "@/lib/permissions";
 import { Card } from "@/components/ui/Card";
 import { formatMetres } from "./format";
+import { HouseChart } from "./HouseChart";
 import { HouseAlerts } from "./LiveAlerts";
 import { LiveReadings } from "./LiveReadings";
 import { PlugList } from "./PlugList";
 import { SensorList } from "./SensorList";
 
-type HouseCardProps = { house: HouseOverview; timeZone: string; mainsVoltage: number; continuousLoadPercent: number };
+type HouseCardProps = {
+  house: HouseOverview;
+  slug: string;
+  role: Role;
+  timeZone: string;
+  mainsVoltage: number;
+  continuousLoadPercent: number;
+};
 
-export function HouseCard({ house, timeZone, mainsVoltage, continuousLoadPercent }: HouseCardProps) {
+export function HouseCard({ house, slug, role, timeZone, mainsVoltage, continuousLoadPercent }: HouseCardProps) {
   const area = house.lengthM * house.widthM;
   const headingId = `house-${house.id}`;
   return (
@@ -30,10 +40,14 @@ export function HouseCard({ house, timeZone, mainsVoltage, continuousLoadPercent
         sensors={house.sensors.map(({ id, name, lastSeenAt, staleAfterS }) => ({ id, name, lastSeenAt, staleAfterS }))}
       />
 
+      <HouseChart houseId={house.id} houseName={house.name} hasSensor={house.sensors.length > 0} />
+
       <section aria-label={`Plugs in ${house.name}`}>
         <h3 className="mb-2 text-xs font-semibold uppercase tracking-wide text-frost-600">Plugs</h3>
         <PlugList
           plugs={house.plugs}
+          slug={slug}
+          role={role}
           timeZone={timeZone}
           mainsVoltage={mainsVoltage}
           continuousLoadPercent={continuousLoadPercent}
@@ -57,6 +71,14 @@ export function HouseCard({ house, timeZone, mainsVoltage, continuousLoadPercent
           <dd className="text-frost-900">{GLAZING_LABELS[house.glazing]}</dd>
         </div>
       </dl>
+      {can(role, "houses.manage") ? (
+        <Link
+          href={`/sites/${encodeURIComponent(slug)}/houses/${encodeURIComponent(house.id)}`}
+          className="-mt-1 inline-flex min-h-11 items-center self-start text-sm font-semibold text-leaf-800 underline decoration-leaf-300 underline-offset-4 hover:decoration-leaf-700"
+        >
+          House settings<span className="sr-only">: {house.name}</span>
+        </Link>
+      ) : null}
     </Card>
   );
 }

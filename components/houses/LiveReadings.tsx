@@ -1,6 +1,10 @@
 "use client";
 
 import { isReadingStale } from "@/lib/control/sensor";
+import type { TemperatureUnit } from "@/lib/domain";
+import { dewPointC, vapourPressureDeficitKPa } from "@/lib/psychrometrics";
+import { toUnit, unitSymbol } from "@/lib/units";
+import { useTemperatureUnit } from "@/components/site/TemperatureUnit";
 import { formatInstant } from "./format";
 import type { SensorLiveJson } from "./live-data";
 import { formatAgo, formatRh, formatTemp } from "./live-format";
@@ -58,7 +62,11 @@ type SensorReadingProps = {
   timeZone: string;
 };
 
+/** A °C value in the person's unit, one decimal, true minus sign. */
+const inUnit = (c: number, unit: TemperatureUnit) => formatTemp(toUnit(c, unit));
+
 function SensorReading({ label, houseName, reading, staleAfterS, now, timeZone }: SensorReadingProps) {
+  const unit = useTemperatureUnit();
   const latest = reading.latest!;
   const at = new Date(latest.at);
   const stale = isReadingStale(at.getTime(), now.getTime(), staleAfterS);
@@ -75,15 +83,15 @@ function SensorReading({ label, houseName, reading, staleAfterS, now, timeZone }
         <p aria-live="polite" aria-atomic="true" className="flex items-baseline gap-3 tabular-nums">
           {latest.tempC !== null ? (
             <span className={`text-4xl font-semibold tracking-tight ${stale ? "text-frost-500" : "text-frost-950"}`}>
-              {formatTemp(latest.tempC)}
-              <span className="ml-0.5 text-xl font-medium text-frost-500">°C</span>
+              {inUnit(latest.tempC, unit)}
+              <span className="ml-0.5 text-xl font-medium text-frost-600">{unitSymbol(unit)}</span>
             </span>
           ) : (
             <span className="text-base text-frost-600">No temperature in the last reading</span>
           )}
           {latest.rh !== null ? (
             <span className="text-base text-frost-700">
-              {formatRh(latest.rh)} <span className="text-sm text-frost-500">RH</span>
+              {formatRh(latest.rh)} <span className="text-sm text-frost-600">RH</span>
             </span>
           ) : null}
         </p>
@@ -99,28 +107,60 @@ function SensorReading({ label, houseName, reading, staleAfterS, now, timeZone }
           </time>
         </p>
       </div>
+      <Humidity tempC={latest.tempC} rh={latest.rh} unit={unit} />
       {range && range.tempMinC !== null && range.tempMaxC !== null ? (
-        <DayRange minC={range.tempMinC} maxC={range.tempMaxC} nowC={latest.tempC} rhMin={range.rhMin} rhMax={range.rhMax} />
+        <DayRange minC={range.tempMinC} maxC={range.tempMaxC} nowC={latest.tempC} rhMin={range.rhMin} rhMax={range.rhMax} unit={unit} />
       ) : null}
     </section>
   );
 }
 
-type DayRangeProps = { minC: number; maxC: number; nowC: number | null; rhMin: number | null; rhMax: number | null };
+const kPa = new Intl.NumberFormat("en", { minimumFractionDigits: 2, maximumFractionDigits: 2 });
+
+/** Dew point (how near the glass and leaves are to condensation) and vapour pressure deficit, from the latest reading. */
+function Humidity({ tempC, rh, unit }: { tempC: number | null; rh: number | null; unit: TemperatureUnit }) {
+  const dew = dewPointC(tempC, rh);
+  const vpd = vapourPressureDeficitKPa(tempC, rh);
+  if (dew === null) return null;
+  return (
+    <p className="mt-1 text-sm tabular-nums text-frost-700">
+      Dew point <span className="font-medium text-frost-900">{inUnit(dew, unit)} {unitSymbol(unit)}</span>
+      {vpd !== null ? (
+        <>
+          <span aria-hidden="true" className="text-frost-400"> · </span>
+          <abbr title="Vapour pressure deficit" className="no-underline">
+            VPD
+          </abbr>{" "}
+          {kPa.format(vpd)} kPa
+        </>
+      ) : null}
+    </p>
+  );
+}
+
+type DayRangeProps = {
+  minC: number;
+  maxC: number;
+  nowC: number | null;
+  rhMin: number | null;
+  rhMax: number | null;
+  unit: TemperatureUnit;
+};
 
 /** The last 24 h low and high, with where the latest reading sits between them. */
-function DayRange({ minC, maxC, nowC, rhMin, rhMax }: DayRangeProps) {
+function DayRange({ minC, maxC, nowC, rhMin, rhMax, unit }: DayRangeProps) {
+  const symbol = unitSymbol(unit);
   const span = maxC - minC;
   const position = nowC === null ? null : span > 0 ? Math.min(1, Math.max(0, (nowC - minC) / span)) : 0.5;
   return (
     <div className="mt-3">
       <p className="sr-only">
-        Last 24 hours: low {formatTemp(minC)} °C, high {formatTemp(maxC)} °C
+        Last 24 hours: low {inUnit(minC, unit)} {symbol}, high {inUnit(maxC, unit)} {symbol}
         {rhMin !== null && rhMax !== null ? `, humidity ${formatRh(rhMin)} to ${formatRh(rhMax)}` : ""}.
       </p>
       <div aria-hidden="true" className="flex items-center gap-2 text-xs tabular-nums text-frost-700">
         <span className="w-16 shrink-0">
-          <span className="text-frost-400">↓</span> {formatTemp(minC)}°
+          <span className="text-frost-400">↓</span> {inUnit(minC, unit)}°
         </span>
         <span className="relative h-1.5 flex-1 rounded-full bg-linear-to-r from-frost-200 to-soil-200">
           {position !== null ? (
@@ -131,10 +171,10 @@ function DayRange({ minC, maxC, nowC, rhMin, rhMax }: DayRangeProps) {
           ) : null}
         </span>
         <span className="w-16 shrink-0 text-right">
-          <span className="text-frost-400">↑</span> {formatTemp(maxC)}°
+          <span className="text-frost-400">↑</span> {inUnit(maxC, unit)}°
         </span>
       </div>
-      <p aria-hidden="true" className="mt-1 flex justify-between text-[11px] text-frost-500">
+      <p aria-hidden="true" className="mt-1 flex justify-between text-xs text-frost-600">
         <span>last 24 h</span>
         {rhMin !== null && rhMax !== null ? (
           <span className="tabular-nums">

@@ -2,8 +2,9 @@ import "server-only";
 import { and, eq, gte, inArray, isNull, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { loadPlugStates } from "@/db/plug-states";
-import { alerts, plugs, readings, sensorStates, sensors, switchEvents } from "@/db/schema";
+import { alerts, plugs, readings, sensorStates, sensors, sites, switchEvents } from "@/db/schema";
 import { getControllerStatus, type ControllerStatus } from "./controller-status";
+import { getInForceByPlug, type PlugInForce } from "./in-force";
 
 export type SensorLive = {
   sensorId: string;
@@ -26,6 +27,12 @@ export type PlugLive = {
   acknowledged: boolean | null;
   /** Why the controller keeps the plug as it is now (can differ from the last switch's cause). */
   presentCause: (typeof switchEvents.$inferSelect)["cause"] | null;
+  /**
+   * What the plug follows now (override, window, default), until when and what follows;
+   * `guardUntil` while the anti-short-cycle guard holds a change back. Null for a plug
+   * whose plan could not be worked out (it is then left out rather than guessed).
+   */
+  inForce: (PlugInForce & { guardUntil: Date | null }) | null;
 };
 
 export type SiteLive = {
@@ -42,14 +49,20 @@ const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
 /** What is happening in a site now: latest readings with their 24 h range, each plug's state. */
 export async function getSiteLive({ siteId, now = new Date() }: { siteId: string; now?: Date }): Promise<SiteLive> {
   const db = getDb();
-  const [sensorRows, plugRows, openAlerts, controller] = await Promise.all([
+  const [sensorRows, plugRows, openAlerts, controller, [site]] = await Promise.all([
     db
       .select({ id: sensors.id, houseId: sensors.houseId, online: sensorStates.online, lastSeenAt: sensorStates.lastSeenAt })
       .from(sensors)
       .leftJoin(sensorStates, eq(sensorStates.sensorId, sensors.id))
       .where(and(eq(sensors.siteId, siteId), isNull(sensors.retiredAt))),
     db
-      .select({ id: plugs.id, houseId: plugs.houseId })
+      .select({
+        id: plugs.id,
+        houseId: plugs.houseId,
+        outsideWindows: plugs.outsideWindows,
+        frostLowC: plugs.frostLowC,
+        frostHighC: plugs.frostHighC,
+      })
       .from(plugs)
       .where(and(eq(plugs.siteId, siteId), isNull(plugs.retiredAt))),
     db
@@ -66,6 +79,7 @@ export async function getSiteLive({ siteId, now = new Date() }: { siteId: string
       .orderBy(sql`${alerts.raisedAt} DESC`)
       .limit(50),
     getControllerStatus({ siteId, now }),
+    db.select({ timeZone: sites.timeZone }).from(sites).where(eq(sites.id, siteId)).limit(1),
   ]);
 
   const sensorIds = sensorRows.map((s) => s.id);
@@ -98,7 +112,10 @@ export async function getSiteLive({ siteId, now = new Date() }: { siteId: string
         )
     : [];
 
-  const states = await loadPlugStates(db, plugIds);
+  const [states, inForce] = await Promise.all([
+    loadPlugStates(db, plugIds),
+    site ? getInForceByPlug({ db, plugs: plugRows, timeZone: site.timeZone, now }) : new Map<string, PlugInForce>(),
+  ]);
   // The causes of the switches the stored states point at: one indexed lookup each.
   const commandIds = [...states.values()].flatMap((st) => [st.switchCommandId, st.pendingCommandId]).filter((id): id is string => id !== null);
   const switchCauses = commandIds.length
@@ -128,7 +145,15 @@ export async function getSiteLive({ siteId, now = new Date() }: { siteId: string
     plugs: plugRows.map((p): PlugLive => {
       const st = states.get(p.id);
       const pending = st?.pendingCommandId && st.pendingOn !== null ? st : null;
-      const base = { plugId: p.id, houseId: p.houseId, online: st?.online ?? false, lastSeenAt: st?.lastSeenAt ?? null, presentCause: st?.presentCause ?? null };
+      const plan = inForce.get(p.id);
+      const base = {
+        plugId: p.id,
+        houseId: p.houseId,
+        online: st?.online ?? false,
+        lastSeenAt: st?.lastSeenAt ?? null,
+        presentCause: st?.presentCause ?? null,
+        inForce: plan ? { ...plan, guardUntil: st?.guardUntil && st.guardUntil > now ? st.guardUntil : null } : null,
+      };
       // A switch on its way shows as what it is doing until the plug confirms it.
       if (pending) {
         return { ...base, on: pending.pendingOn, cause: switchCauses.get(pending.pendingCommandId!) ?? null, since: pending.pendingSince, acknowledged: false };

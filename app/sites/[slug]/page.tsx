@@ -45,6 +45,8 @@ export default async function HousesPage({ params }: Props) {
               <HouseCard
                 key={house.id}
                 house={house}
+                slug={site.slug}
+                role={site.role}
                 timeZone={site.timeZone}
                 mainsVoltage={site.mainsVoltage}
                 continuousLoadPercent={site.continuousLoadPercent}
