@@ -1,6 +1,6 @@
 // A local stand-in for an outgoing mail server: an SMTP server on loopback that takes
 // every message (no TLS, no sign-in) and keeps it as an .eml file in a folder, where
-// fakes/mailbox.ts and the /dev/mail page read it. `npm start` and `npm test` run one.
+// lib/server/mailbox.ts reads it for the /dev/mail page and the tests. `npm start` and `npm test` run one.
 import { randomBytes } from "node:crypto";
 import { mkdirSync, renameSync, writeFileSync } from "node:fs";
 import type { AddressInfo } from "node:net";

@@ -25,6 +25,8 @@ describe("an invitation", () => {
     await page.getByRole("radio", { name: /Helper/ }).check();
     await page.getByRole("button", { name: "Send invitation" }).click();
     await expect.poll(() => page.getByText(`Invitation sent to ${email}`).count()).toBe(1);
+    // …and it is listed among the open invitations.
+    await expect.poll(() => page.getByText(email, { exact: true }).count()).toBeGreaterThan(0);
     await screenshot(page, "owner-invites");
 
     await page.goto("/dev/mail");

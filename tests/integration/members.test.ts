@@ -4,7 +4,7 @@ import { and, eq, sql } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { auditLog, invitations, memberships, user } from "@/db/schema";
-import { waitForMail } from "@/fakes/mailbox";
+import { waitForMail } from "@/lib/server/mailbox";
 import { INVITATION_REFUSALS } from "@/lib/invitations";
 import { hashInvitationToken } from "@/lib/server/invitation-token";
 import * as sitesRoute from "@/app/api/sites/route";

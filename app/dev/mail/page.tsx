@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { Card } from "@/components/ui/Card";
-import { listMail } from "@/fakes/mailbox";
+import { listMail } from "@/lib/server/mailbox";
 import { mailSinkFolder } from "./sink";
 
 export const metadata: Metadata = { title: "Mail kept by the local sink", robots: { index: false } };

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { Card } from "@/components/ui/Card";
-import { readMail } from "@/fakes/mailbox";
+import { readMail } from "@/lib/server/mailbox";
 import { mailSinkFolder } from "../sink";
 
 export const metadata: Metadata = { title: "A message kept by the local sink", robots: { index: false }, referrer: "no-referrer" };
