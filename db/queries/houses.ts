@@ -2,6 +2,7 @@ import "server-only";
 import { and, asc, eq, inArray, isNull, sql } from "drizzle-orm";
 import { randomUUID } from "node:crypto";
 import { getDb } from "@/db/client";
+import { revokeDeviceCredentials } from "@/db/device-credentials";
 import { houses, plugStates, plugs, sensorStates, sensors } from "@/db/schema";
 import { sensorStaleAfterS } from "@/lib/control";
 import { AppError } from "@/lib/errors";
@@ -121,8 +122,16 @@ export async function updateHouse({ house, userId, change }: { house: House; use
   return (await getHouse({ siteId: house.siteId, houseId: house.id }))!;
 }
 
+/** Removes a house with its plugs and sensors (cascade); their MQTT credentials stop working with them. */
 export async function deleteHouse({ house, userId }: { house: House; userId: string }) {
   await getDb().transaction(async (tx) => {
+    const at = new Date();
+    const [plugRows, sensorRows] = await Promise.all([
+      tx.select({ deviceId: plugs.deviceId }).from(plugs).where(eq(plugs.houseId, house.id)),
+      tx.select({ deviceId: sensors.deviceId }).from(sensors).where(eq(sensors.houseId, house.id)),
+    ]);
+    for (const { deviceId } of plugRows) await revokeDeviceCredentials(tx, { siteId: house.siteId, kind: "plug", deviceId }, at);
+    for (const { deviceId } of sensorRows) await revokeDeviceCredentials(tx, { siteId: house.siteId, kind: "sensor", deviceId }, at);
     await tx.delete(houses).where(eq(houses.id, house.id));
     await recordAudit(tx, {
       siteId: house.siteId,
