@@ -51,7 +51,7 @@ export const plugSchema = plugFields
   .refine(dutyGiven, DUTY_RULE);
 
 /** A change to a plug; its device id is fixed once added. */
-export const plugChangeSchema = plugFields.omit({ deviceId: true }).partial();
+export const plugChangeSchema = plugFields.omit({ deviceId: true }).partial().strict();
 
 export const plugParams = z.object({ siteId: recordId("site"), plugId: recordId("plug") });
 
