@@ -10,7 +10,7 @@ import { Select } from "@/components/ui/Select";
 import { TextInput } from "@/components/ui/TextInput";
 import { placeFieldErrors, sendJson } from "@/lib/client/api";
 import { APPLIANCE_KINDS, APPLIANCE_KIND_LABELS, FAILSAFE_MODES, FAILSAFE_MODE_LABELS } from "@/lib/domain";
-import { plugRules, plugSchema, type Mains, type PlugFormInput, type PlugInput } from "@/lib/schemas/plug";
+import { plugSchemaFor, type Mains, type PlugFormInput, type PlugInput } from "@/lib/schemas/plug";
 import { FormShell } from "./FormShell";
 import { LoadCheck } from "./LoadCheck";
 import { NumberField } from "./NumberField";
@@ -55,7 +55,7 @@ export function PlugForm({ siteId, slug, mains, houses, sensors, plug, houseId }
   const [serverError, setServerError] = useState<string | null>(null);
   const [saved, setSaved] = useState(false);
   // The handler's rule in the form too: the load must be within the site's continuous-load margin.
-  const [schema] = useState(() => plugSchema.and(plugRules(mains)));
+  const [schema] = useState(() => plugSchemaFor(mains));
   const {
     register,
     handleSubmit,

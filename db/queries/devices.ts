@@ -110,6 +110,8 @@ export async function getDevicesBySite({ siteId, includeRetired }: { siteId: str
       .orderBy(asc(houses.name), asc(sensors.name)),
   ]);
   return {
+    /** When presence was read: "last seen" is relative to it. */
+    at: new Date(),
     plugs: plugRows.map((p): DeviceListItem => ({ ...p, kind: "plug" })),
     sensors: sensorRows.map((s): DeviceListItem => ({ ...s, kind: "sensor" })),
   };
@@ -137,3 +139,12 @@ export async function getPlugsFollowing({ siteId, sensorId }: { siteId: string; 
     .orderBy(asc(plugs.name));
 }
 
+
+/** The working plugs of a house that follow no sensor. */
+export async function getPlugsWithoutSensor({ siteId, houseId }: { siteId: string; houseId: string }) {
+  return getDb()
+    .select({ id: plugs.id, name: plugs.name })
+    .from(plugs)
+    .where(and(eq(plugs.siteId, siteId), eq(plugs.houseId, houseId), isNull(plugs.sensorId), isNull(plugs.retiredAt)))
+    .orderBy(asc(plugs.name));
+}

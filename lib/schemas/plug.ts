@@ -88,3 +88,19 @@ export function plugRules(mains: Mains) {
       message: loadMessage(mains),
     });
 }
+
+/** A new plug under the site's rules too: the form checks the load as the handler will. */
+export function plugSchemaFor(mains: Mains) {
+  const rules = plugRules(mains);
+  return plugSchema.superRefine((plug, ctx) => {
+    const checked = rules.safeParse(plug);
+    if (checked.success) return;
+    for (const issue of checked.error.issues) ctx.addIssue({ code: "custom", path: issue.path, message: issue.message });
+  });
+}
+
+/** A stored plug as the form edits it: its id and this schema's fields only (not the schedule's outside-windows default). */
+export function plugFormValues<P extends PlugInput & { id: string }>(plug: P): PlugInput & { id: string } {
+  const values = Object.fromEntries(Object.keys(plugFields.shape).map((key) => [key, plug[key as keyof PlugInput]]));
+  return { ...(values as PlugInput), id: plug.id };
+}
