@@ -36,7 +36,7 @@ export function ConfirmButton({ label, warning, confirmLabel, url, method, onDon
 
   if (!asking) {
     return (
-      <Button variant="secondary" className="border-ember-200 text-ember-800 hover:bg-ember-50" onClick={() => setAsking(true)}>
+      <Button variant="secondary" className="self-start border-ember-200 text-ember-800 hover:bg-ember-50" onClick={() => setAsking(true)}>
         {label}
       </Button>
     );

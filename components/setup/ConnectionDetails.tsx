@@ -36,7 +36,7 @@ export function ConnectionDetails({ broker, username, siteSlug, kind, deviceId }
               {ROLE_LABELS[t.role]} · QoS {t.qos}
               {t.retained ? " · retained" : ""} — {t.what}
             </p>
-            <pre className="mt-2 overflow-x-auto rounded-md bg-frost-100 px-3 py-2 font-mono text-xs text-frost-900">{t.example}</pre>
+            <pre className="mt-2 whitespace-pre-wrap break-all rounded-md bg-frost-100 px-3 py-2 font-mono text-xs text-frost-900">{t.example}</pre>
           </li>
         ))}
       </ul>

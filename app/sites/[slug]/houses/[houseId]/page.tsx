@@ -9,12 +9,13 @@ import { PageTitle } from "@/components/setup/PageTitle";
 import { Section } from "@/components/setup/Section";
 import { SetupSteps } from "@/components/setup/SetupSteps";
 import { buttonClasses } from "@/components/ui/Button";
+import { Notice } from "@/components/ui/Notice";
 import { getCredentialStatus, getDevicesBySite } from "@/db/queries/devices";
 import { getHouse } from "@/db/queries/houses";
 import { can } from "@/lib/permissions";
 import { getCurrentSite } from "../../current-site";
 
-type Props = { params: Promise<{ slug: string; houseId: string }> };
+type Props = { params: Promise<{ slug: string; houseId: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> };
 
 async function loadHouse(props: Props) {
   const { slug, houseId } = await props.params;
@@ -48,6 +49,7 @@ export default async function HousePage(props: Props) {
   return (
     <div className="flex flex-col gap-6">
       <PageTitle title={house.name} back={{ href: `/sites/${site.slug}`, label: "Houses" }} />
+      {(await props.searchParams).added === "1" ? <Notice>House added. Next, its heater plug.</Notice> : null}
 
       {canManageDevices && !(plug && sensor && credentials) ? (
         <Section title="Getting this house working">

@@ -12,7 +12,6 @@ import { RetireDevice } from "@/components/setup/RetireDevice";
 import { Section } from "@/components/setup/Section";
 import { SensorForm } from "@/components/setup/SensorForm";
 import { deviceFormOptions } from "@/components/setup/new-device";
-import { buttonClasses } from "@/components/ui/Button";
 import { Notice } from "@/components/ui/Notice";
 import { getCredentialStatus, getDevicesBySite, getPlugsWithoutSensor } from "@/db/queries/devices";
 import { getPlug } from "@/db/queries/plugs";
@@ -139,11 +138,6 @@ export default async function DevicePage(props: Props) {
         </Section>
       ) : null}
 
-      {canManage && !retired && kind === "plug" ? (
-        <Link href={`/sites/${site.slug}/houses/${device.houseId}`} className={buttonClasses("quiet", "self-start")}>
-          Back to the house
-        </Link>
-      ) : null}
     </div>
   );
 }
