@@ -5,10 +5,11 @@ import { and, desc, eq } from "drizzle-orm";
 import { beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
 import { getDb } from "@/db/client";
 import { lookupDeviceSecret } from "@/db/device-credentials";
-import { auditLog, deviceCredentials, plugs } from "@/db/schema";
+import { auditLog, deviceCredentials, plugs, sites } from "@/db/schema";
 import { DEMO_MEMBERS, DEMO_SITE, demoId, seedDemo } from "@/db/seed";
 import { loadConfig } from "@/controller/config";
 import * as sitesRoute from "@/app/api/sites/route";
+import * as siteRoutes from "@/app/api/sites/[siteId]/route";
 import * as housesRoute from "@/app/api/sites/[siteId]/houses/route";
 import * as houseRoute from "@/app/api/sites/[siteId]/houses/[houseId]/route";
 import * as devicesRoute from "@/app/api/sites/[siteId]/devices/route";
@@ -330,5 +331,20 @@ describe("each person's own settings", () => {
     const r = await send(meSettingsRoute.PUT, "PUT", {}, { temperatureUnit: "kelvin" }, cookies.viewer);
     expect(r.status).toBe(400);
     expect(r.json.error!.message).toBe("temperatureUnit: Temperature unit must be c or f");
+  });
+});
+
+describe("site settings", () => {
+  it("the owner's change is audited, and wakes the controller only when a control field changes", async () => {
+    const [site] = await getDb().select().from(sites).where(eq(sites.id, siteId));
+    const renamed = await send(siteRoutes.PATCH, "PATCH", { siteId }, { name: site!.name }, cookies.owner);
+    expect(renamed.status).toBe(200);
+    expect(wakes).toEqual([]);
+    const margin = await send(siteRoutes.PATCH, "PATCH", { siteId }, { continuousLoadPercent: 80, mainsVoltage: 230 }, cookies.owner);
+    expect(margin.status).toBe(200);
+    expect(wakes).toEqual([{ site: "fernhollow", payload: { reason: "site" } }]);
+    const [entry] = await auditOf(siteId);
+    expect(entry).toMatchObject({ action: "site.update", after: { continuousLoadPercent: 80, mainsVoltage: 230 } });
+    expect((await send(siteRoutes.PATCH, "PATCH", { siteId }, { mainsVoltage: 120 }, cookies.grower)).status).toBe(403);
   });
 });
