@@ -42,7 +42,7 @@ export function DeviceList({ siteId, slug, timeZone, houses, initial, renderedAt
       </label>
       {error ? <Notice tone="error">Could not refresh the devices: {(error as Error).message}</Notice> : null}
       {!data ? <p className="text-sm text-frost-600">Loading…</p> : null}
-      {houses.map((house) => {
+      {data && houses.map((house) => {
         const inHouse = byHouse.get(house.id) ?? [];
         return (
           <section key={house.id} aria-labelledby={`devices-${house.id}`} className="flex flex-col gap-2">

@@ -2,7 +2,7 @@
 
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
-import { useState } from "react";
+import { useEffect, useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
 import { HeaterSafetyNote } from "@/components/safety/HeaterSafetyNote";
 import { Field } from "@/components/ui/Field";
@@ -61,6 +61,8 @@ export function PlugForm({ siteId, slug, mains, houses, sensors, plug, houseId }
     handleSubmit,
     setError,
     control,
+    getValues,
+    setValue,
     formState: { errors, isSubmitting },
   } = useForm<PlugFormInput, unknown, PlugInput>({
     resolver: zodResolver(schema),
@@ -82,6 +84,14 @@ export function PlugForm({ siteId, slug, mains, houses, sensors, plug, houseId }
   });
   const [watts, rating, chosenHouse, failsafe, kind] = useWatch({ control, name: ["applianceWatts", "ratedCurrentA", "houseId", "failsafe", "applianceKind"] });
   const houseSensors = sensors.filter((s) => s.houseId === chosenHouse);
+
+  // A plug's sensor must be in its house: moving the plug offers that house's first sensor.
+  useEffect(() => {
+    const current = getValues("sensorId");
+    const inHouse = sensors.filter((s) => s.houseId === chosenHouse);
+    if (current && inHouse.some((s) => s.id === current)) return;
+    setValue("sensorId", inHouse[0]?.id ?? null);
+  }, [chosenHouse, sensors, getValues, setValue]);
 
   const onSubmit = handleSubmit(async (values) => {
     setServerError(null);

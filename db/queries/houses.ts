@@ -10,6 +10,7 @@ import { groupBy } from "@/lib/group-by";
 import { changedHouseSchema, type HouseChange, type HouseInput } from "@/lib/schemas/house";
 import { parseWith } from "@/lib/server/http";
 import { recordAudit } from "./audit";
+import { changedFields } from "@/lib/changed-fields";
 
 export type House = typeof houses.$inferSelect;
 export type PlugSummary = Pick<
@@ -106,18 +107,11 @@ export async function createHouse({ siteId, userId, input }: { siteId: string; u
 
 export async function updateHouse({ house, userId, change }: { house: House; userId: string; change: HouseChange }) {
   parseWith(changedHouseSchema, { ...house, ...change });
+  const { before, after } = changedFields(house, change);
+  if (Object.keys(after).length === 0) return house;
   await getDb().transaction(async (tx) => {
-    await tx.update(houses).set(change).where(eq(houses.id, house.id));
-    const before = Object.fromEntries(Object.keys(change).map((k) => [k, house[k as keyof House]]));
-    await recordAudit(tx, {
-      siteId: house.siteId,
-      userId,
-      action: "house.update",
-      entityType: "house",
-      entityId: house.id,
-      before,
-      after: change,
-    });
+    await tx.update(houses).set(after).where(eq(houses.id, house.id));
+    await recordAudit(tx, { siteId: house.siteId, userId, action: "house.update", entityType: "house", entityId: house.id, before, after });
   });
   return (await getHouse({ siteId: house.siteId, houseId: house.id }))!;
 }

@@ -8,6 +8,7 @@ import { AppError } from "@/lib/errors";
 import { plugRules, type Mains, type PlugChange, type PlugInput } from "@/lib/schemas/plug";
 import { parseWith } from "@/lib/server/http";
 import { recordAudit } from "./audit";
+import { changedFields } from "@/lib/changed-fields";
 import { assertDeviceIdFree, assertHouseOfSite, assertNotRetired, deviceIdTaken } from "./devices";
 import { isDuplicateKey } from "./sites";
 
@@ -73,10 +74,11 @@ export async function updatePlug({ site, plug, userId, change }: { site: Site; p
     await assertSensorInHouse({ siteId: site.id, houseId: merged.houseId, sensorId: merged.sensorId });
   }
   parseWith(plugRules(site), merged);
-  const before = Object.fromEntries(Object.keys(change).map((k) => [k, plug[k as keyof Plug]]));
+  const { before, after } = changedFields(plug, change);
+  if (Object.keys(after).length === 0) return plug;
   await getDb().transaction(async (tx) => {
-    await tx.update(plugs).set(change).where(eq(plugs.id, plug.id));
-    await recordAudit(tx, { siteId: site.id, userId, action: "plug.update", entityType: "plug", entityId: plug.id, before, after: change });
+    await tx.update(plugs).set(after).where(eq(plugs.id, plug.id));
+    await recordAudit(tx, { siteId: site.id, userId, action: "plug.update", entityType: "plug", entityId: plug.id, before, after });
   });
   return (await getPlug({ siteId: site.id, plugId: plug.id }))!;
 }

@@ -7,6 +7,7 @@ import { sensors } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import type { SensorChange, SensorInput } from "@/lib/schemas/sensor";
 import { recordAudit } from "./audit";
+import { changedFields } from "@/lib/changed-fields";
 import { assertDeviceIdFree, assertHouseOfSite, assertNotRetired, deviceIdTaken, getPlugsFollowing } from "./devices";
 import { isDuplicateKey } from "./sites";
 
@@ -66,10 +67,11 @@ export async function updateSensor({ site, sensor, userId, change }: { site: { i
     await assertHouseOfSite({ siteId: site.id, houseId: change.houseId });
     await assertNoFollowers(site, sensor, "move");
   }
-  const before = Object.fromEntries(Object.keys(change).map((k) => [k, sensor[k as keyof Sensor]]));
+  const { before, after } = changedFields(sensor, change);
+  if (Object.keys(after).length === 0) return sensor;
   await getDb().transaction(async (tx) => {
-    await tx.update(sensors).set(change).where(eq(sensors.id, sensor.id));
-    await recordAudit(tx, { siteId: site.id, userId, action: "sensor.update", entityType: "sensor", entityId: sensor.id, before, after: change });
+    await tx.update(sensors).set(after).where(eq(sensors.id, sensor.id));
+    await recordAudit(tx, { siteId: site.id, userId, action: "sensor.update", entityType: "sensor", entityId: sensor.id, before, after });
   });
   return (await getSensor({ siteId: site.id, sensorId: sensor.id }))!;
 }

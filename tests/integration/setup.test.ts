@@ -117,6 +117,23 @@ describe("a house's low and high limits", () => {
   });
 });
 
+describe("removing a house", () => {
+  it("revokes the credentials of its plugs and sensors with it", async () => {
+    const created = await send(housesRoute.POST, "POST", { siteId }, { ...newHouse, name: "Short-lived" });
+    const houseId = (created.json.house as { id: string }).id;
+    const plug = await createPlug({ houseId });
+    const sensorMade = await send(sensorsRoute.POST, "POST", { siteId }, sensorBody({ houseId }));
+    const sensor = sensorMade.json.sensor as { id: string };
+    const names: string[] = [];
+    for (const [kind, id] of [["plug", plug.id], ["sensor", sensor.id]]) {
+      const issued = await send(credentialRoute.POST, "POST", { siteId, kind: kind!, id: id! });
+      names.push(issued.json.username as string);
+    }
+    expect((await send(houseRoute.DELETE, "DELETE", { siteId, houseId })).status).toBe(204);
+    for (const name of names) expect(await lookupDeviceSecret(getDb(), name)).toBeNull();
+  });
+});
+
 describe("plugs", () => {
   it.each([
     ["owner", 201],

@@ -4,6 +4,7 @@ import { changedHouseSchema, houseSchema } from "@/lib/schemas/house";
 import { plugChangeSchema, plugFormValues, plugRules, plugSchema, plugSchemaFor } from "@/lib/schemas/plug";
 import { sensorChangeSchema, sensorSchema } from "@/lib/schemas/sensor";
 import { userSettingsSchema } from "@/lib/schemas/me";
+import { changedFields } from "@/lib/changed-fields";
 
 const house = { name: "Lean-to", kind: "glasshouse", lengthM: 4, widthM: 2, eaveHeightM: 2, ridgeHeightM: 2.5, glazing: "single_glass" };
 const plug = {
@@ -85,4 +86,13 @@ describe("plug", () => {
 it("a person's unit is c or f", () => {
   expect(userSettingsSchema.safeParse({ temperatureUnit: "f" }).success).toBe(true);
   expect(userSettingsSchema.safeParse({ temperatureUnit: "K" }).success).toBe(false);
+});
+
+describe("changedFields", () => {
+  it("keeps only what differs, with the stored values it replaces", () => {
+    const stored = { name: "Heater", watts: 2000, sensorId: null as string | null, notes: null as string | null };
+    expect(changedFields(stored, { name: "Heater", watts: 1500, sensorId: null })).toEqual({ before: { watts: 2000 }, after: { watts: 1500 } });
+    expect(changedFields(stored, { sensorId: "s1", notes: undefined })).toEqual({ before: { sensorId: null }, after: { sensorId: "s1" } });
+    expect(changedFields(stored, {})).toEqual({ before: {}, after: {} });
+  });
 });
