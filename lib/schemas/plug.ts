@@ -10,29 +10,29 @@ const plugFields = z.object({
   ...deviceFields,
   applianceKind: z.enum(APPLIANCE_KINDS, { error: `Appliance must be one of ${APPLIANCE_KINDS.join(", ")}` }),
   applianceWatts: z
-    .number({ error: "Rated watts must be a number" })
-    .int("Rated watts must be a whole number")
-    .min(1, "Rated watts must be at least 1")
-    .max(10_000, "Rated watts must be at most 10000"),
+    .number({ error: "Rated power must be a number" })
+    .int("Rated power must be a whole number of watts")
+    .min(1, "Rated power must be at least 1 W")
+    .max(10_000, "Rated power must be at most 10000 W"),
   ratedCurrentA: decimalNumber("Plug rating", 1, 63).multipleOf(0.1, "Plug rating must be in tenths of an ampere"),
   metersEnergy: z.boolean({ error: "Meters energy must be true or false" }),
   sensorId: recordId("sensor").nullable(),
   failsafe: z.enum(FAILSAFE_MODES, { error: `Fail-safe must be one of ${FAILSAFE_MODES.join(", ")}` }),
   failsafeDutyPercent: z
-    .number({ error: "Duty must be a number" })
-    .int("Duty must be a whole percent")
-    .min(1, "Duty must be at least 1 %")
-    .max(99, "Duty must be at most 99 %")
+    .number({ error: "On-for percent must be a number" })
+    .int("On-for percent must be a whole percent")
+    .min(1, "On-for percent must be at least 1 %")
+    .max(99, "On-for percent must be at most 99 %")
     .nullable(),
   failsafeDutyPeriodS: seconds("Duty period", 60, 7200),
-  staleAfterS: seconds("Stale after", 60, 86_400),
-  minOnS: seconds("Minimum on time", 0, 3600),
-  minOffS: seconds("Minimum off time", 0, 3600),
+  staleAfterS: seconds("Quiet after", 60, 86_400),
+  minOnS: seconds("Least time on", 0, 3600),
+  minOffS: seconds("Least time off", 0, 3600),
   leaseS: seconds("Lease", 60, 86_400),
 });
 
 type DutyFields = { failsafe: string; failsafeDutyPercent: number | null };
-const DUTY_RULE = { path: ["failsafeDutyPercent"], message: "Duty is required when the fail-safe is a duty cycle" };
+const DUTY_RULE = { path: ["failsafeDutyPercent"], message: "On-for percent is required when the fail-safe is a duty cycle" };
 const dutyGiven = (plug: DutyFields) => plug.failsafe !== "duty" || plug.failsafeDutyPercent != null;
 
 /** A new plug; the usual settings unless given. */

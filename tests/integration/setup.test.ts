@@ -158,7 +158,7 @@ describe("plugs", () => {
 
   it.each([
     ["a device id that breaks the topic rule", { deviceId: "Bench Heater!" }, "deviceId", /lower-case letters, digits or dashes/],
-    ["a duty fail-safe without its percent", { failsafe: "duty" }, "failsafeDutyPercent", /Duty is required/],
+    ["a duty fail-safe without its percent", { failsafe: "duty" }, "failsafeDutyPercent", /On-for percent is required/],
     ["watts as text", { applianceWatts: "2kW" }, "applianceWatts", /must be a number/],
     ["a rating in hundredths", { ratedCurrentA: 12.55 }, "ratedCurrentA", /tenths/],
     ["a lease under a minute", { leaseS: 5 }, "leaseS", /at least 60 s/],
