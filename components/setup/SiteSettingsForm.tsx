@@ -70,7 +70,7 @@ export function SiteSettingsForm({ siteId, site }: { siteId: string; site: Setti
         <NumberField
           label="Continuous-load margin"
           unit="%"
-          hint={`How much of a plug’s rating a load running for hours may draw (${min}–${max} %; 80 % is the common rule).`}
+          hint={`How much of a plug’s rating a load running for hours may draw (${min}–${max} %; 80 % is the common rule). Plugs whose appliance goes over it are kept off.`}
           step={1}
           error={errors.continuousLoadPercent?.message}
           register={register("continuousLoadPercent", { valueAsNumber: true })}
