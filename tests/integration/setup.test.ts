@@ -1,11 +1,11 @@
 // Setting up a site through its handlers: houses' limits, plugs, sensors, device
 // credentials and each person's °C/°F. The access table (access/setup.ts) holds the
 // 401/404/403 checks; here are the happy paths, bad input, the roles and the audit.
-import { and, desc, eq } from "drizzle-orm";
-import { beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
+import { and, desc, eq, inArray, like, notInArray } from "drizzle-orm";
+import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
 import { getDb } from "@/db/client";
 import { lookupDeviceSecret } from "@/db/device-credentials";
-import { auditLog, deviceCredentials, plugs, sites } from "@/db/schema";
+import { auditLog, deviceCredentials, houses, plugs, sensors, sites } from "@/db/schema";
 import { DEMO_MEMBERS, DEMO_SITE, demoId, seedDemo } from "@/db/seed";
 import { loadConfig } from "@/controller/config";
 import * as sitesRoute from "@/app/api/sites/route";
@@ -34,6 +34,7 @@ vi.mock("@/lib/server/wake", () => ({
 const siteId = DEMO_SITE.id;
 const glass = demoId("house:glass");
 const tunnel = demoId("house:tunnel");
+const DEMO_HOUSES = [glass, tunnel, demoId("house:seedling")];
 const cookies: Record<string, string> = {};
 let outsider: Account;
 let outsiderSite: string;
@@ -81,6 +82,17 @@ beforeAll(async () => {
 
 beforeEach(() => {
   wakes.length = 0;
+});
+
+// The demo site is shared with the other test files: what these tests added to it goes again.
+afterAll(async () => {
+  const db = getDb();
+  await db.delete(plugs).where(and(eq(plugs.siteId, siteId), like(plugs.deviceId, "bench-%")));
+  await db.delete(sensors).where(and(eq(sensors.siteId, siteId), like(sensors.deviceId, "bench-%")));
+  await db.delete(deviceCredentials).where(and(eq(deviceCredentials.siteId, siteId), like(deviceCredentials.deviceId, "bench-%")));
+  await db.delete(houses).where(and(eq(houses.siteId, siteId), notInArray(houses.id, DEMO_HOUSES)));
+  const left = await db.select({ id: houses.id }).from(houses).where(inArray(houses.id, DEMO_HOUSES));
+  expect(left).toHaveLength(DEMO_HOUSES.length);
 });
 
 describe("a house's low and high limits", () => {
