@@ -85,7 +85,11 @@ export default async function DevicePage(props: Props) {
               </Link>
               .
             </>
-          ) : null}
+          ) : null}{" "}
+          <Link href={`/sites/${site.slug}/houses/${device.houseId}`} className="font-semibold underline">
+            See the house’s set-up steps
+          </Link>
+          .
         </Notice>
       ) : null}
       {retired ? <Notice>Retired {device.retiredAt!.toISOString().slice(0, 10)}: no longer switched or read, and its credential is revoked. Its history is kept.</Notice> : null}
