@@ -15,22 +15,41 @@ export async function lookupDeviceSecret(db: Database, username: string): Promis
   return row?.secretHash ?? null;
 }
 
-/** A new secret for a device; any earlier one stops working. Returns the secret, once. */
-export async function issueDeviceCredential(
-  db: Database,
-  device: { siteId: string; siteSlug: string; kind: DeviceKind; deviceId: string },
-): Promise<{ username: string; secret: string }> {
+type Writer = Pick<Database, "insert" | "delete" | "update">;
+type DeviceRef = { siteId: string; siteSlug: string; kind: DeviceKind; deviceId: string };
+
+/** Inside the caller's transaction: a new secret for a device, replacing any earlier one. Returns the secret, once. */
+export async function replaceDeviceCredential(tx: Writer, device: DeviceRef): Promise<{ username: string; secret: string }> {
   const username = deviceUsername(device.siteSlug, device.kind, device.deviceId);
   const secret = newDeviceSecret();
-  await db.transaction(async (tx) => {
-    await tx.delete(deviceCredentials).where(eq(deviceCredentials.username, username));
-    await tx.insert(deviceCredentials).values({
-      siteId: device.siteId,
-      deviceKind: device.kind,
-      deviceId: device.deviceId,
-      username,
-      secretHash: hashDeviceSecret(secret),
-    });
+  await tx.delete(deviceCredentials).where(eq(deviceCredentials.username, username));
+  await tx.insert(deviceCredentials).values({
+    siteId: device.siteId,
+    deviceKind: device.kind,
+    deviceId: device.deviceId,
+    username,
+    secretHash: hashDeviceSecret(secret),
   });
   return { username, secret };
+}
+
+/** A new secret for a device; any earlier one stops working. Returns the secret, once. */
+export async function issueDeviceCredential(db: Database, device: DeviceRef): Promise<{ username: string; secret: string }> {
+  return db.transaction((tx) => replaceDeviceCredential(tx, device));
+}
+
+/** Inside the caller's transaction: the device's secret stops working (kept, marked revoked). Returns how many were active. */
+export async function revokeDeviceCredentials(tx: Writer, device: { siteId: string; kind: DeviceKind; deviceId: string }, at: Date) {
+  const [result] = await tx
+    .update(deviceCredentials)
+    .set({ revokedAt: at })
+    .where(
+      and(
+        eq(deviceCredentials.siteId, device.siteId),
+        eq(deviceCredentials.deviceKind, device.kind),
+        eq(deviceCredentials.deviceId, device.deviceId),
+        isNull(deviceCredentials.revokedAt),
+      ),
+    );
+  return result.affectedRows;
 }

@@ -2,6 +2,7 @@ import "server-only";
 import { and, asc, eq, inArray, isNull, sql } from "drizzle-orm";
 import { randomUUID } from "node:crypto";
 import { getDb } from "@/db/client";
+import { revokeDeviceCredentials } from "@/db/device-credentials";
 import { houses, plugStates, plugs, sensorStates, sensors } from "@/db/schema";
 import { sensorStaleAfterS } from "@/lib/control";
 import { AppError } from "@/lib/errors";
@@ -9,6 +10,7 @@ import { groupBy } from "@/lib/group-by";
 import { changedHouseSchema, type HouseChange, type HouseInput } from "@/lib/schemas/house";
 import { parseWith } from "@/lib/server/http";
 import { recordAudit } from "./audit";
+import { changedFields } from "@/lib/changed-fields";
 
 export type House = typeof houses.$inferSelect;
 export type PlugSummary = Pick<
@@ -105,24 +107,25 @@ export async function createHouse({ siteId, userId, input }: { siteId: string; u
 
 export async function updateHouse({ house, userId, change }: { house: House; userId: string; change: HouseChange }) {
   parseWith(changedHouseSchema, { ...house, ...change });
+  const { before, after } = changedFields(house, change);
+  if (Object.keys(after).length === 0) return house;
   await getDb().transaction(async (tx) => {
-    await tx.update(houses).set(change).where(eq(houses.id, house.id));
-    const before = Object.fromEntries(Object.keys(change).map((k) => [k, house[k as keyof House]]));
-    await recordAudit(tx, {
-      siteId: house.siteId,
-      userId,
-      action: "house.update",
-      entityType: "house",
-      entityId: house.id,
-      before,
-      after: change,
-    });
+    await tx.update(houses).set(after).where(eq(houses.id, house.id));
+    await recordAudit(tx, { siteId: house.siteId, userId, action: "house.update", entityType: "house", entityId: house.id, before, after });
   });
   return (await getHouse({ siteId: house.siteId, houseId: house.id }))!;
 }
 
+/** Removes a house with its plugs and sensors (cascade); their MQTT credentials stop working with them. */
 export async function deleteHouse({ house, userId }: { house: House; userId: string }) {
   await getDb().transaction(async (tx) => {
+    const at = new Date();
+    const [plugRows, sensorRows] = await Promise.all([
+      tx.select({ deviceId: plugs.deviceId }).from(plugs).where(eq(plugs.houseId, house.id)),
+      tx.select({ deviceId: sensors.deviceId }).from(sensors).where(eq(sensors.houseId, house.id)),
+    ]);
+    for (const { deviceId } of plugRows) await revokeDeviceCredentials(tx, { siteId: house.siteId, kind: "plug", deviceId }, at);
+    for (const { deviceId } of sensorRows) await revokeDeviceCredentials(tx, { siteId: house.siteId, kind: "sensor", deviceId }, at);
     await tx.delete(houses).where(eq(houses.id, house.id));
     await recordAudit(tx, {
       siteId: house.siteId,

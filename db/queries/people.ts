@@ -17,3 +17,12 @@ export async function getUserSettings({ userId }: { userId: string }): Promise<U
     .limit(1);
   return row ?? defaults;
 }
+
+/** Stores a person's own settings (one row each, made on first save). */
+export async function setUserSettings({ userId, settings }: { userId: string; settings: UserSettings }): Promise<UserSettings> {
+  await getDb()
+    .insert(userSettings)
+    .values({ userId, ...settings })
+    .onDuplicateKeyUpdate({ set: { temperatureUnit: settings.temperatureUnit, updatedAt: new Date() } });
+  return getUserSettings({ userId });
+}

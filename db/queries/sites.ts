@@ -72,7 +72,7 @@ export function slugify(name: string) {
   return base || "site";
 }
 
-function isDuplicateKey(error: unknown) {
+export function isDuplicateKey(error: unknown) {
   const cause = (error as { cause?: { code?: string } })?.cause ?? error;
   return (cause as { code?: string })?.code === "ER_DUP_ENTRY";
 }

@@ -39,3 +39,23 @@ export const decimalNumber = (label: string, min: number, max: number) =>
     .number({ error: `${label} must be a number` })
     .min(min, `${label} must be at least ${min}`)
     .max(max, `${label} must be at most ${max}`);
+
+const fahrenheit = (c: number) => Math.round(((c * 9) / 5 + 32) * 10) / 10;
+
+/**
+ * A temperature in °C (stored and sent in °C). The bounds are told in both units, as
+ * the person may type in °F and the form converts before checking.
+ */
+export const temperatureC = (label: string, min: number, max: number) =>
+  z
+    .number({ error: `${label} must be a number` })
+    .min(min, `${label} must be at least ${min} °C (${fahrenheit(min)} °F)`)
+    .max(max, `${label} must be at most ${max} °C (${fahrenheit(max)} °F)`);
+
+/** A whole number of seconds within bounds. */
+export const seconds = (label: string, min: number, max: number) =>
+  z
+    .number({ error: `${label} must be a number` })
+    .int(`${label} must be a whole number of seconds`)
+    .min(min, `${label} must be at least ${min} s`)
+    .max(max, `${label} must be at most ${max} s`);

@@ -1,0 +1,55 @@
+import type { Metadata } from "next";
+import { PageTitle } from "@/components/setup/PageTitle";
+import { Section } from "@/components/setup/Section";
+import { SiteSettingsForm } from "@/components/setup/SiteSettingsForm";
+import { UnitForm } from "@/components/setup/UnitForm";
+import { can } from "@/lib/permissions";
+import { getCurrentSite } from "../current-site";
+
+type Props = { params: Promise<{ slug: string }> };
+
+export const metadata: Metadata = { title: "Settings" };
+
+export default async function SettingsPage({ params }: Props) {
+  const { site } = await getCurrentSite((await params).slug);
+  const settings = {
+    name: site.name,
+    timeZone: site.timeZone,
+    currency: site.currency,
+    mainsVoltage: site.mainsVoltage,
+    continuousLoadPercent: site.continuousLoadPercent,
+  };
+  const rows: [string, string][] = [
+    ["Site name", settings.name],
+    ["Time zone", settings.timeZone.replaceAll("_", " ")],
+    ["Currency", settings.currency],
+    ["Mains voltage", `${settings.mainsVoltage} V`],
+    ["Continuous-load margin", `${settings.continuousLoadPercent} % of a plug’s rating`],
+  ];
+  return (
+    <div className="flex flex-col gap-6">
+      <PageTitle title="Settings" />
+      <Section title="Your settings">
+        <p className="text-sm text-frost-600">Yours alone, the same in every site you belong to.</p>
+        <UnitForm />
+      </Section>
+      <Section title="Site settings">
+        {can(site.role, "site.edit") ? (
+          <SiteSettingsForm siteId={site.id} site={settings} />
+        ) : (
+          <>
+            <dl className="grid gap-3 text-sm sm:grid-cols-2">
+              {rows.map(([label, value]) => (
+                <div key={label}>
+                  <dt className="text-xs text-frost-600">{label}</dt>
+                  <dd className="text-frost-950">{value}</dd>
+                </div>
+              ))}
+            </dl>
+            <p className="text-xs text-frost-600">Only the site’s owners change these.</p>
+          </>
+        )}
+      </Section>
+    </div>
+  );
+}

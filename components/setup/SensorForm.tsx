@@ -1,0 +1,83 @@
+"use client";
+
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { useForm } from "react-hook-form";
+import { Field } from "@/components/ui/Field";
+import { Select } from "@/components/ui/Select";
+import { TextInput } from "@/components/ui/TextInput";
+import { placeFieldErrors, sendJson } from "@/lib/client/api";
+import { sensorSchema, type SensorInput } from "@/lib/schemas/sensor";
+import { FormShell } from "./FormShell";
+
+const FIELDS = ["name", "deviceId", "houseId"] as const;
+
+type SensorFormProps = {
+  siteId: string;
+  slug: string;
+  houses: { id: string; name: string }[];
+  sensor?: SensorInput & { id: string };
+  houseId?: string;
+};
+
+/** A temperature/humidity sensor in a house. */
+export function SensorForm({ siteId, slug, houses, sensor, houseId }: SensorFormProps) {
+  const router = useRouter();
+  const [serverError, setServerError] = useState<string | null>(null);
+  const [saved, setSaved] = useState(false);
+  const {
+    register,
+    handleSubmit,
+    setError,
+    formState: { errors, isSubmitting },
+  } = useForm<SensorInput>({
+    resolver: zodResolver(sensorSchema),
+    defaultValues: sensor ?? { name: "", deviceId: "", houseId: houseId ?? houses[0]?.id ?? "" },
+  });
+
+  const onSubmit = handleSubmit(async (values) => {
+    setServerError(null);
+    setSaved(false);
+    const result = sensor
+      ? await sendJson<{ sensor: { id: string } }>(`/api/sites/${siteId}/sensors/${sensor.id}`, "PATCH", { name: values.name, houseId: values.houseId })
+      : await sendJson<{ sensor: { id: string } }>(`/api/sites/${siteId}/sensors`, "POST", values);
+    if (!result.ok) {
+      setServerError(placeFieldErrors(result.error, FIELDS, (name, message) => setError(name as (typeof FIELDS)[number], { message })));
+      return;
+    }
+    if (sensor) {
+      setSaved(true);
+      router.refresh();
+    } else {
+      router.push(`/sites/${slug}/devices/sensor/${result.data.sensor.id}?added=1`);
+    }
+  });
+
+  return (
+    <FormShell onSubmit={onSubmit} error={serverError} pending={isSubmitting} submitLabel={sensor ? "Save the sensor" : "Add the sensor"} pendingLabel="Saving…">
+      {saved ? <p role="status" className="rounded-lg bg-leaf-50 px-3 py-2 text-sm text-leaf-800">Saved.</p> : null}
+      <Field label="Name" hint="E.g. “Glasshouse air”." error={errors.name?.message}>
+        {(c) => <TextInput {...c} {...register("name")} />}
+      </Field>
+      <Field
+        label="Device id"
+        hint={sensor ? "Fixed once added: the device’s topic and sign-in are named after it." : "Its name on the broker: lower-case letters, digits and dashes, e.g. glass-air."}
+        error={errors.deviceId?.message}
+      >
+        {(c) => <TextInput {...c} autoCapitalize="none" autoCorrect="off" spellCheck={false} readOnly={Boolean(sensor)} {...register("deviceId")} />}
+      </Field>
+      <Field label="House" error={errors.houseId?.message}>
+        {(c) => (
+          <Select {...c} {...register("houseId")}>
+            {houses.map((h) => (
+              <option key={h.id} value={h.id}>
+                {h.name}
+              </option>
+            ))}
+          </Select>
+        )}
+      </Field>
+    </FormShell>
+  );
+}
