@@ -1,6 +1,6 @@
 "use client";
 
-import { useRef, useState, type KeyboardEvent, type PointerEvent } from "react";
+import { useEffect, useRef, useState, type KeyboardEvent, type PointerEvent } from "react";
 import { useTemperatureUnit } from "@/components/site/TemperatureUnit";
 import type { WindowInput } from "@/lib/schemas/schedule";
 import type { PlanAction } from "@/lib/schedules/edit";
@@ -36,6 +36,13 @@ export function WeekGrid({ windows, faulty, canEdit, dispatch, onEdit, onAdd, an
   const unit = useTemperatureUnit();
   const [drag, setDrag] = useState<Drag | null>(null);
   const columns = useRef<HTMLDivElement>(null);
+  // A moved window is drawn anew (maybe in another column): keep the keyboard on it.
+  const [refocus, setRefocus] = useState<{ index: number } | null>(null);
+  useEffect(() => {
+    if (!refocus) return;
+    columns.current?.querySelector<HTMLElement>(`[data-window="${refocus.index}"][data-opens]`)?.focus();
+    setRefocus(null);
+  }, [refocus]);
 
   // While dragging, the window is drawn where it would land.
   const shown = windows.map((w, i) =>
@@ -65,6 +72,7 @@ export function WeekGrid({ windows, faulty, canEdit, dispatch, onEdit, onAdd, an
     if (!action) return;
     e.preventDefault();
     dispatch(action);
+    setRefocus({ index });
     const after = action.type === "resize" ? resizeWindow(w, action.minutes) : moveWindow(w, action.minutes, action.days);
     announce(`${action.type === "resize" ? "Resized" : "Moved"}: ${describeWindow(after, unit)}`);
   }
@@ -144,12 +152,15 @@ export function WeekGrid({ windows, faulty, canEdit, dispatch, onEdit, onAdd, an
                   .filter((p) => p.day === day)
                   .map((p) => {
                     const w = shown[p.index]!;
-                    const label = `Window ${p.index + 1}: ${WEEKDAY_NAMES[day]}, ${describeTimes(w)}, ${windowSetting(w, unit)}${faulty.has(p.index) ? ", has a problem" : ""}`;
+                    const opened = p.opensHere ? WEEKDAY_NAMES[day] : `${WEEKDAY_NAMES[WEEKDAYS[(WEEKDAYS.indexOf(day) + 6) % 7]!]}, running on into ${WEEKDAY_NAMES[day]}`;
+                    const label = `Window ${p.index + 1}: ${opened}, ${describeTimes(w)}, ${windowSetting(w, unit)}${faulty.has(p.index) ? ", has a problem" : ""}`;
                     const tone = WINDOW_TONES[w.mode];
                     return (
                       <button
                         key={`${p.index}-${day}-${p.from}`}
                         type="button"
+                        data-window={p.index}
+                        data-opens={p.opensHere ? "" : undefined}
                         aria-label={label}
                         aria-keyshortcuts={canEdit ? "ArrowUp ArrowDown ArrowLeft ArrowRight Shift+ArrowUp Shift+ArrowDown Enter Delete" : undefined}
                         onKeyDown={(e) => onKeyDown(e, p.index)}
