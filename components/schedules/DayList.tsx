@@ -4,7 +4,7 @@ import { useTemperatureUnit } from "@/components/site/TemperatureUnit";
 import { Button } from "@/components/ui/Button";
 import type { WindowInput } from "@/lib/schemas/schedule";
 import { windowSetting } from "@/lib/schedules/format";
-import { WEEKDAYS, WEEKDAY_NAMES, dayPieces, describeDays, timeOf, type Weekday } from "@/lib/schedules/week";
+import { WEEKDAYS, WEEKDAY_NAMES, dayPieces, describeDays, describeTimes, timeOf, type Weekday } from "@/lib/schedules/week";
 import { WINDOW_TONES } from "./window-tone";
 
 type Props = {
@@ -32,7 +32,7 @@ export function DayList({ windows, faulty, canEdit, onEdit, onRemove, onAdd, onC
             <ul className="mt-2 flex flex-col gap-2">
               {today.map((p) => {
                 const w = windows[p.index]!;
-                const times = `${timeOf(p.from)}–${p.until === 24 * 60 ? "24:00" : timeOf(p.until)}`;
+                const times = p.opensHere ? describeTimes(w) : `${timeOf(p.from)}–${timeOf(p.until)}`;
                 return (
                   <li
                     key={`${p.index}-${p.from}`}
@@ -44,7 +44,6 @@ export function DayList({ windows, faulty, canEdit, onEdit, onRemove, onAdd, onC
                         {windowSetting(w, unit)}
                         {p.opensHere && w.days.length > 1 ? ` · also ${describeDays(w.days.filter((d) => d !== day))}` : ""}
                         {p.opensHere ? "" : " · from the day before (edit it there)"}
-                        {p.closesHere ? "" : " · runs on past midnight"}
                       </span>
                     </span>
                     {canEdit && p.opensHere ? (

@@ -86,8 +86,21 @@ export function ScheduleEditor({ siteId, siteSlug, timeZone, plug, initial, sche
       e.preventDefault();
       e.returnValue = "";
     };
+    // Links inside the app change the page without unloading it: ask before leaving by one.
+    const leave = (e: MouseEvent) => {
+      const link = (e.target as Element | null)?.closest?.("a[href]");
+      if (!link || link.getAttribute("target") === "_blank" || e.defaultPrevented) return;
+      if (!window.confirm("This plan has unsaved changes. Leave without saving them?")) {
+        e.preventDefault();
+        e.stopPropagation();
+      }
+    };
     window.addEventListener("beforeunload", warn);
-    return () => window.removeEventListener("beforeunload", warn);
+    document.addEventListener("click", leave, true);
+    return () => {
+      window.removeEventListener("beforeunload", warn);
+      document.removeEventListener("click", leave, true);
+    };
   }, [dirty]);
 
   const startAdd = (day: Weekday, startMin: number) => {

@@ -37,12 +37,14 @@ export function WeekGrid({ windows, faulty, canEdit, dispatch, onEdit, onAdd, an
   const [drag, setDrag] = useState<Drag | null>(null);
   const columns = useRef<HTMLDivElement>(null);
   // A moved window is drawn anew (maybe in another column): keep the keyboard on it.
-  const [refocus, setRefocus] = useState<{ index: number } | null>(null);
+  const refocus = useRef<{ index: number; day: Weekday } | null>(null);
   useEffect(() => {
-    if (!refocus) return;
-    columns.current?.querySelector<HTMLElement>(`[data-window="${refocus.index}"][data-opens]`)?.focus();
-    setRefocus(null);
-  }, [refocus]);
+    if (refocus.current === null) return;
+    const { index, day } = refocus.current;
+    const grid = columns.current;
+    (grid?.querySelector<HTMLElement>(`[data-day="${day}"] [data-window="${index}"][data-opens]`) ?? grid?.querySelector<HTMLElement>(`[data-window="${index}"][data-opens]`))?.focus();
+    refocus.current = null;
+  });
 
   // While dragging, the window is drawn where it would land.
   const shown = windows.map((w, i) =>
@@ -50,7 +52,7 @@ export function WeekGrid({ windows, faulty, canEdit, dispatch, onEdit, onAdd, an
   );
   const pieces = dayPieces(shown);
 
-  function onKeyDown(e: KeyboardEvent<HTMLButtonElement>, index: number) {
+  function onKeyDown(e: KeyboardEvent<HTMLButtonElement>, index: number, day: Weekday) {
     if (!canEdit) return;
     const w = windows[index]!;
     let action: PlanAction | null = null;
@@ -72,7 +74,8 @@ export function WeekGrid({ windows, faulty, canEdit, dispatch, onEdit, onAdd, an
     if (!action) return;
     e.preventDefault();
     dispatch(action);
-    setRefocus({ index });
+    // The same day's opening of the window, wherever the move took it.
+    refocus.current = { index, day: action.type === "move" ? moveWindow({ ...w, days: [day] }, action.minutes, action.days).days[0]! : day };
     const after = action.type === "resize" ? resizeWindow(w, action.minutes) : moveWindow(w, action.minutes, action.days);
     announce(`${action.type === "resize" ? "Resized" : "Moved"}: ${describeWindow(after, unit)}`);
   }
@@ -163,7 +166,7 @@ export function WeekGrid({ windows, faulty, canEdit, dispatch, onEdit, onAdd, an
                         data-opens={p.opensHere ? "" : undefined}
                         aria-label={label}
                         aria-keyshortcuts={canEdit ? "ArrowUp ArrowDown ArrowLeft ArrowRight Shift+ArrowUp Shift+ArrowDown Enter Delete" : undefined}
-                        onKeyDown={(e) => onKeyDown(e, p.index)}
+                        onKeyDown={(e) => onKeyDown(e, p.index, p.day)}
                         onPointerDown={(e) => startDrag(e, p.index, "move")}
                         onPointerMove={onPointerMove}
                         onPointerUp={endDrag}

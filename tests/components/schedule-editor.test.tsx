@@ -83,8 +83,10 @@ describe("the week grid with the keyboard", () => {
     fireEvent.keyDown(mondayBlock(), { key: "ArrowUp", shiftKey: true });
     expect(mondayBlock().getAttribute("aria-label")).toBe("Window 1: Monday, 06:15–21:00, 8–10 °C");
 
+    // Monday's opening moves to Tuesday (and Tuesday's to Wednesday); the keyboard follows it.
     fireEvent.keyDown(mondayBlock(), { key: "ArrowRight" });
     expect(screen.queryByRole("button", { name: /^Window 1: Monday/ })).toBeNull();
+    expect(document.activeElement).toBe(screen.getByRole("button", { name: /^Window 1: Tuesday/ }));
     expect(screen.getByRole("button", { name: /^Window 1: Wednesday/ })).toBeTruthy();
     expect(screen.getByText("Unsaved changes")).toBeTruthy();
   });
