@@ -173,12 +173,13 @@ export function WeekGrid({ windows, faulty, canEdit, dispatch, onEdit, onAdd, an
                         onPointerCancel={() => setDrag(null)}
                         // A press is handled on release (endDrag), Enter on key down: the click only must not reach the column.
                         onClick={(e) => e.stopPropagation()}
-                        className={`absolute inset-x-0.5 overflow-hidden border-l-4 px-1 text-left text-xs leading-tight touch-none select-none ${tone} ${
+                        className={`absolute inset-x-0.5 flex flex-col justify-start overflow-hidden border-l-4 px-1 pt-0.5 text-left text-xs leading-tight touch-none select-none ${tone} ${
                           p.opensHere ? "rounded-t-md" : "border-t border-t-dashed"
                         } ${p.closesHere ? "rounded-b-md" : ""} ${faulty.has(p.index) ? "ring-2 ring-ember-600" : ""} ${
                           drag?.index === p.index ? "opacity-80 shadow-lg" : ""
                         } ${canEdit ? "cursor-grab" : "cursor-default"}`}
-                        style={{ top: p.from * PX_PER_MIN, height: Math.max(14, (p.until - p.from) * PX_PER_MIN) }}
+                        // A gap above each opening, so that windows which touch are told apart.
+                        style={{ top: p.from * PX_PER_MIN + (p.opensHere ? 2 : 0), height: Math.max(14, (p.until - p.from) * PX_PER_MIN - (p.opensHere ? 2 : 0)) }}
                       >
                         {p.opensHere || p.from === 0 ? (
                           <span className="block font-semibold">{windowSetting(w, unit)}</span>
