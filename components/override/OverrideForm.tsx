@@ -2,7 +2,7 @@
 
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
-import { useForm } from "react-hook-form";
+import { useForm, useWatch } from "react-hook-form";
 import { Notice } from "@/components/ui/Notice";
 import {
   MAX_REASON_LENGTH,
@@ -35,13 +35,13 @@ export function OverrideForm({ siteId, plugId, timeZone, now, nextChangeAt, onCr
     handleSubmit,
     setValue,
     setError,
-    watch,
+    control,
     formState: { errors, isSubmitting },
   } = useForm<OverrideInput>({
     resolver: zodResolver(overrideSchema),
     defaultValues: { duration: "1h", reason: "" },
   });
-  const duration = watch("duration");
+  const duration = useWatch({ control, name: "duration" });
 
   const submit = handleSubmit(async (input) => {
     setFailure(null);

@@ -27,7 +27,6 @@ async function fetchPanel(url: string): Promise<OverridePanelJson> {
 function useTicking(start: string): Date {
   const [now, setNow] = useState(() => new Date(start));
   useEffect(() => {
-    setNow(new Date());
     const timer = setInterval(() => setNow(new Date()), 1000);
     return () => clearInterval(timer);
   }, []);
