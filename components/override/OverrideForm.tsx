@@ -11,6 +11,7 @@ import {
   overrideSchema,
   type OverrideInput,
 } from "@/lib/schemas/override";
+import { clockMs } from "./confirmation";
 import { errorMessage, panelUrl } from "./panel-data";
 import { formatSiteTime, localInputValue } from "./time";
 
@@ -67,7 +68,7 @@ export function OverrideForm({ siteId, plugId, timeZone, now, nextChangeAt, onCr
       return;
     }
     const { override } = (await response.json()) as { override: { id: string; startsAt: string; stopsAt: string | null } };
-    onCreated({ ...override, on: input.on }, Date.now());
+    onCreated({ ...override, on: input.on }, clockMs());
   });
 
   const press = (on: boolean) => {

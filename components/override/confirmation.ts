@@ -34,3 +34,6 @@ export function confirmationOf(press: Press, report: HeardReport | null, online:
   if (nowMs - press.answeredAtMs >= CONFIRM_WAIT_MS) return { kind: "no_answer" };
   return { kind: "waiting" };
 }
+
+/** This browser's clock, read when a press is answered. */
+export const clockMs = () => Date.now();
