@@ -255,8 +255,10 @@ export async function createOverride({
 }): Promise<{ id: string; startsAt: Date; endsAt: Date | null; untilNextChange: boolean; stopsAt: Date | null; cancelled: string[] }> {
   if (plug.retiredAt) throw new AppError("conflict", "This plug is retired: it is no longer switched, so it cannot be overridden.");
   const db = getDb();
-  const plugSchedules = await getSchedulesOfPlug(db, plug.id);
-  const next = nextChange(plugSchedules, timeZone, now);
+  // The schedule matters only for "until the schedule changes" (this one or one in force):
+  // a phone's press should not wait for it otherwise.
+  let plugSchedules = input.duration === "next_change" ? await getSchedulesOfPlug(db, plug.id) : null;
+  const next = plugSchedules ? nextChange(plugSchedules, timeZone, now) : null;
   const end = overrideEnd(input, now, timeZone, next);
   const row: StoredOverride = {
     id: randomUUID(),
@@ -276,7 +278,8 @@ export async function createOverride({
     // One change at a time per plug: two presses at once must not leave two overrides in force.
     await tx.select({ id: plugs.id }).from(plugs).where(eq(plugs.id, plug.id)).for("update");
     for (const o of await openOverrides(tx, plug.id, now)) {
-      if (!isActive(o, stopsAt(o, plugSchedules, timeZone), now)) continue;
+      if (o.untilNextChange && !o.endsAt) plugSchedules ??= await getSchedulesOfPlug(tx, plug.id);
+      if (!isActive(o, stopsAt(o, plugSchedules ?? [], timeZone), now)) continue;
       await cancelRow(tx, o, plug.siteId, userId, now);
       cancelled.push(o.id);
     }

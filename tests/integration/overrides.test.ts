@@ -26,9 +26,14 @@ beforeAll(async () => {
 
 const params = (plugId = site.heaterId) => ({ siteId: site.siteId, plugId });
 
+type Answer = {
+  override: { id: string; stopsAt: string; cancelled: string[] };
+  error: { code: string; message: string; fields?: Record<string, string> };
+};
+
 async function press(body: unknown, who: Account = people.helper, plugId = site.heaterId) {
   const response = await call(overridesRoute.POST, { method: "POST", path: "/x", params: params(plugId), body, cookie: who.cookie });
-  return { status: response.status, json: (await response.json()) as Record<string, any> };
+  return { status: response.status, json: (await response.json()) as Answer };
 }
 
 async function stored(id: string) {
