@@ -1,16 +1,10 @@
 "use client";
 
-import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
-import { useForm, useWatch } from "react-hook-form";
+import { useForm, useWatch, type Resolver } from "react-hook-form";
 import { Notice } from "@/components/ui/Notice";
-import {
-  MAX_REASON_LENGTH,
-  OVERRIDE_DURATIONS,
-  OVERRIDE_DURATION_LABELS,
-  overrideSchema,
-  type OverrideInput,
-} from "@/lib/schemas/override";
+import { MAX_REASON_LENGTH, OVERRIDE_DURATIONS, OVERRIDE_DURATION_LABELS } from "@/lib/override-durations";
+import type { OverrideInput } from "@/lib/schemas/override";
 import { clockMs } from "./confirmation";
 import { errorMessage, panelUrl } from "./panel-data";
 import { formatSiteTime, localInputValue } from "./time";
@@ -28,6 +22,11 @@ type Props = {
 
 const HOUR_MS = 3600_000;
 
+// zodResolver on the shared schema, loaded on first use (see override-resolver.ts); a
+// touch of the form starts the load, so the press does not wait for it.
+const loadResolver = () => import("./override-resolver").then((m) => m.overrideResolver);
+const lazyResolver: Resolver<OverrideInput> = async (values, context, options) => (await loadResolver())(values, context, options);
+
 /** How long, why, then one large press: on or off. */
 export function OverrideForm({ siteId, plugId, timeZone, now, nextChangeAt, onCreated }: Props) {
   const [failure, setFailure] = useState<string | null>(null);
@@ -39,7 +38,7 @@ export function OverrideForm({ siteId, plugId, timeZone, now, nextChangeAt, onCr
     control,
     formState: { errors, isSubmitting },
   } = useForm<OverrideInput>({
-    resolver: zodResolver(overrideSchema),
+    resolver: lazyResolver,
     defaultValues: { duration: "1h", reason: "" },
   });
   const duration = useWatch({ control, name: "duration" });
@@ -79,7 +78,7 @@ export function OverrideForm({ siteId, plugId, timeZone, now, nextChangeAt, onCr
   const nextChange = nextChangeAt ? new Date(nextChangeAt) : null;
 
   return (
-    <form onSubmit={(e) => e.preventDefault()} noValidate className="flex flex-col gap-5" aria-label="Override this plug">
+    <form onSubmit={(e) => e.preventDefault()} onPointerDown={() => void loadResolver()} onFocus={() => void loadResolver()} noValidate className="flex flex-col gap-5" aria-label="Override this plug">
       <fieldset>
         <legend className="text-lg font-semibold text-frost-950">For how long</legend>
         <div className="mt-2 grid grid-cols-1 gap-2">
