@@ -2,7 +2,7 @@ import { SWITCH_CAUSE_LABELS } from "@/lib/domain";
 import type { OverridePanelJson } from "./panel-data";
 import { formatSiteTime } from "./time";
 
-/** The plug's state now: on or off in large type, since when and why, and what holds a change back. */
+/** The plug's state now: on or off in large type, since when, why it is kept so (and why it last switched, when that differs), and what holds a change back. */
 export function PlugNow({ panel, now, timeZone, online }: { panel: OverridePanelJson; now: Date; timeZone: string; online: boolean | null }) {
   const state = panel.now;
   const on = state.reportedOn ?? state.on;
@@ -26,6 +26,9 @@ export function PlugNow({ panel, now, timeZone, online }: { panel: OverridePanel
         {cause ? SWITCH_CAUSE_LABELS[cause] : "Not switched by Cloche yet"}
         {since ? <span className="text-frost-600"> · since {formatSiteTime(since, now, timeZone)}</span> : null}
       </p>
+      {state.cause && state.presentCause && state.cause !== state.presentCause ? (
+        <p className="mt-0.5 text-sm text-frost-700">Last switched by: {SWITCH_CAUSE_LABELS[state.cause]}</p>
+      ) : null}
       {state.pendingOn !== null ? (
         <p className="mt-1 text-base text-frost-800">Switching {state.pendingOn ? "on" : "off"}: waiting for the plug to answer.</p>
       ) : null}
