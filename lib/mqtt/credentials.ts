@@ -36,13 +36,18 @@ export function mayPublish(who: Principal, topic: string) {
   }
 }
 
-/** What a principal may subscribe to (filters may hold wildcards only for the controller). */
+/** Plug report and presence filters, for one site or device or with `+` in their place. */
+const WEBAPP_FILTER = /^cloche\/v1\/(?:\+|[a-z0-9-]+)\/plug\/(?:\+|[a-z0-9-]+)\/(?:report|presence)$/;
+
+/** What a principal may subscribe to (wildcards: the controller anywhere, the web app in place of a site or device). */
 export function maySubscribe(who: Principal, filter: string) {
   switch (who.kind) {
     case "controller":
       return filter === `${TOPIC_ROOT}/#` || filter.startsWith(`${TOPIC_ROOT}/`);
     case "webapp":
-      return false;
+      // The plugs' own reports and presence, so that a page learns at once that a plug
+      // switched; never commands, readings or wake-ups.
+      return WEBAPP_FILTER.test(filter);
     case "plug":
       return filter === `${TOPIC_ROOT}/${who.site}/plug/${who.device}/command`;
     case "sensor":

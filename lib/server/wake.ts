@@ -30,9 +30,14 @@ export async function setWakeBroker(broker: WakeBroker | null): Promise<void> {
   await old?.endAsync(true);
 }
 
+/** The broker the web app uses: the one set by setWakeBroker, else the environment's (null: none). */
+export function webappBroker(): WakeBroker | null {
+  return state.broker !== undefined ? state.broker : brokerFromEnv();
+}
+
 function client(): MqttClient | null {
   if (state.client) return state.client;
-  const broker = state.broker !== undefined ? state.broker : brokerFromEnv();
+  const broker = webappBroker();
   if (!broker) return null;
   state.client = mqtt
     .connect(broker.url, {
