@@ -25,8 +25,32 @@ export async function loadPlugSchedules(
   plugIds: string[],
   now: Date,
 ): Promise<{ schedules: ScheduleConfig[]; overrides: OverrideConfig[] }> {
-  if (plugIds.length === 0) return { schedules: [], overrides: [] };
-  const [scheduleRows, windowRows, skipRows, overrideRows] = await Promise.all([
+  const [plugSchedules, plugOverrides] = await Promise.all([loadSchedulesOfPlugs(db, plugIds), loadOverridesInForce(db, plugIds, now)]);
+  return { schedules: plugSchedules, overrides: plugOverrides };
+}
+
+/** The overrides of these plugs not cancelled and not yet ended at `now`, latest first. */
+export async function loadOverridesInForce(db: Pick<Database, "select">, plugIds: string[], now: Date): Promise<OverrideConfig[]> {
+  if (plugIds.length === 0) return [];
+  return db
+    .select({
+      id: overrides.id,
+      plugId: overrides.plugId,
+      on: overrides.on,
+      startsAt: overrides.startsAt,
+      endsAt: overrides.endsAt,
+      untilNextChange: overrides.untilNextChange,
+      userId: overrides.userId,
+    })
+    .from(overrides)
+    .where(and(inArray(overrides.plugId, plugIds), isNull(overrides.cancelledAt), or(isNull(overrides.endsAt), gt(overrides.endsAt, now))))
+    .orderBy(desc(overrides.startsAt));
+}
+
+/** The schedules of these plugs with their windows and skip days. */
+export async function loadSchedulesOfPlugs(db: Pick<Database, "select">, plugIds: string[]): Promise<ScheduleConfig[]> {
+  if (plugIds.length === 0) return [];
+  const [scheduleRows, windowRows, skipRows] = await Promise.all([
     db.select().from(schedules).where(inArray(schedules.plugId, plugIds)),
     db
       .select({ window: scheduleWindows })
@@ -38,46 +62,23 @@ export async function loadPlugSchedules(
       .from(scheduleExceptions)
       .innerJoin(schedules, eq(schedules.id, scheduleExceptions.scheduleId))
       .where(inArray(schedules.plugId, plugIds)),
-    db
-      .select({
-        id: overrides.id,
-        plugId: overrides.plugId,
-        on: overrides.on,
-        startsAt: overrides.startsAt,
-        endsAt: overrides.endsAt,
-        untilNextChange: overrides.untilNextChange,
-        userId: overrides.userId,
-      })
-      .from(overrides)
-      .where(
-        and(
-          inArray(overrides.plugId, plugIds),
-          isNull(overrides.cancelledAt),
-          or(isNull(overrides.endsAt), gt(overrides.endsAt, now)),
-        ),
-      )
-      .orderBy(desc(overrides.startsAt)),
   ]);
-
   const windowsOf = groupBy(windowRows, (w) => w.window.scheduleId);
   const skipDaysOf = groupBy(skipRows, (k) => k.scheduleId);
-  return {
-    schedules: scheduleRows.map((s) => ({
-      id: s.id,
-      plugId: s.plugId,
-      validFrom: s.validFrom,
-      validUntil: s.validUntil,
-      windows: (windowsOf.get(s.id) ?? []).map(({ window: w }) => ({
-        id: w.id,
-        recurrence: w.recurrence,
-        startsAt: w.startsAt,
-        durationMin: w.durationMin,
-        mode: w.mode,
-        lowC: w.lowC,
-        highC: w.highC,
-      })),
-      skipDays: (skipDaysOf.get(s.id) ?? []).map((k) => k.day),
+  return scheduleRows.map((s) => ({
+    id: s.id,
+    plugId: s.plugId,
+    validFrom: s.validFrom,
+    validUntil: s.validUntil,
+    windows: (windowsOf.get(s.id) ?? []).map(({ window: w }) => ({
+      id: w.id,
+      recurrence: w.recurrence,
+      startsAt: w.startsAt,
+      durationMin: w.durationMin,
+      mode: w.mode,
+      lowC: w.lowC,
+      highC: w.highC,
     })),
-    overrides: overrideRows,
-  };
+    skipDays: (skipDaysOf.get(s.id) ?? []).map((k) => k.day),
+  }));
 }

@@ -42,15 +42,11 @@ export function overrideEnd(input: Pick<OverrideInput, "duration" | "until">, no
 }
 
 /**
- * When a stored override stops acting, as the controller judges it (controller/registry.ts):
- * its end, or for "until the schedule changes" the next change after its start
- * (`nextChangeAfterStart`; null: it runs until cancelled). A cancellation ends it earlier.
+ * When a stored override stops acting: its end (lib/control/plan.ts `overrideEndsAt`,
+ * as the controller judges it; null: it runs until cancelled), or its cancellation
+ * when that came first.
  */
-export function overrideStopsAt(
-  o: { endsAt: Date | null; untilNextChange: boolean; cancelledAt: Date | null },
-  nextChangeAfterStart: Date | null,
-): Date | null {
-  const end = o.endsAt ?? (o.untilNextChange ? nextChangeAfterStart : null);
+export function overrideStopsAt(o: { cancelledAt: Date | null }, end: Date | null): Date | null {
   if (o.cancelledAt && (end === null || o.cancelledAt < end)) return o.cancelledAt;
   return end;
 }

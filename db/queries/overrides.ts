@@ -4,11 +4,12 @@ import { and, desc, eq, gt, inArray, isNull, or } from "drizzle-orm";
 import { alias } from "drizzle-orm/mysql-core";
 import { getDb, type Database } from "@/db/client";
 import { loadPlugStates } from "@/db/plug-states";
-import { houses, overrides, plugs, scheduleExceptions, scheduleWindows, schedules, switchEvents, user } from "@/db/schema";
+import { houses, overrides, plugs, switchEvents, user } from "@/db/schema";
 import type { SwitchCause } from "@/lib/domain";
 import { AppError } from "@/lib/errors";
 import { overrideEnd, overrideStopsAt } from "@/lib/override-end";
-import { groupBy } from "@/lib/group-by";
+import { overrideEndsAt } from "@/lib/control/plan";
+import { loadSchedulesOfPlugs } from "@/db/plug-schedules";
 import { nextChange, type Schedule } from "@/lib/schedule";
 import type { OverrideInput } from "@/lib/schemas/override";
 import { recordAudit } from "./audit";
@@ -50,45 +51,16 @@ export async function requirePlugOfSite({ siteId, plugId }: { siteId: string; pl
 }
 
 /** The plug's schedules in the shape lib/schedule resolves, as the controller loads them (controller/config.ts). */
+/** A plug's schedules, as the controller reads them. */
 export async function getSchedulesOfPlug(db: Pick<Database, "select">, plugId: string): Promise<Schedule[]> {
-  const [scheduleRows, windowRows, skipRows] = await Promise.all([
-    db.select().from(schedules).where(eq(schedules.plugId, plugId)),
-    db
-      .select({ window: scheduleWindows })
-      .from(scheduleWindows)
-      .innerJoin(schedules, eq(schedules.id, scheduleWindows.scheduleId))
-      .where(eq(schedules.plugId, plugId)),
-    db
-      .select({ scheduleId: scheduleExceptions.scheduleId, day: scheduleExceptions.day })
-      .from(scheduleExceptions)
-      .innerJoin(schedules, eq(schedules.id, scheduleExceptions.scheduleId))
-      .where(eq(schedules.plugId, plugId)),
-  ]);
-  const windowsOf = groupBy(windowRows, (w) => w.window.scheduleId);
-  const skipDaysOf = groupBy(skipRows, (k) => k.scheduleId);
-  return scheduleRows.map((s) => ({
-    id: s.id,
-    validFrom: s.validFrom,
-    validUntil: s.validUntil,
-    windows: (windowsOf.get(s.id) ?? []).map(({ window: w }) => ({
-      id: w.id,
-      recurrence: w.recurrence,
-      startsAt: w.startsAt,
-      durationMin: w.durationMin,
-      mode: w.mode,
-      lowC: w.lowC,
-      highC: w.highC,
-    })),
-    skipDays: (skipDaysOf.get(s.id) ?? []).map((k) => k.day),
-  }));
+  return loadSchedulesOfPlugs(db, [plugId]);
 }
 
 type StoredOverride = typeof overrides.$inferSelect;
 
 /** When a stored override stops acting, as the controller judges it. */
 function stopsAt(o: StoredOverride, plugSchedules: Schedule[], timeZone: string): Date | null {
-  const next = o.untilNextChange && !o.endsAt ? nextChange(plugSchedules, timeZone, o.startsAt) : null;
-  return overrideStopsAt(o, next);
+  return overrideStopsAt(o, overrideEndsAt(o, plugSchedules, timeZone));
 }
 
 const isActive = (o: StoredOverride, stops: Date | null, now: Date) =>

@@ -47,12 +47,12 @@ describe("overrideEnd", () => {
 
 describe("overrideStopsAt", () => {
   const end = new Date("2026-03-29T06:00:00Z");
-  it("is the end, the next change, or the earlier cancellation", () => {
-    expect(overrideStopsAt({ endsAt: end, untilNextChange: false, cancelledAt: null }, null)).toEqual(end);
-    expect(overrideStopsAt({ endsAt: null, untilNextChange: true, cancelledAt: null }, end)).toEqual(end);
-    expect(overrideStopsAt({ endsAt: null, untilNextChange: false, cancelledAt: null }, end)).toBeNull();
-    expect(overrideStopsAt({ endsAt: end, untilNextChange: false, cancelledAt: now }, null)).toEqual(now);
-    expect(overrideStopsAt({ endsAt: now, untilNextChange: false, cancelledAt: end }, null)).toEqual(now);
+  it("is the end, or the earlier cancellation", () => {
+    expect(overrideStopsAt({ cancelledAt: null }, end)).toEqual(end);
+    expect(overrideStopsAt({ cancelledAt: null }, null)).toBeNull();
+    expect(overrideStopsAt({ cancelledAt: now }, end)).toEqual(now);
+    expect(overrideStopsAt({ cancelledAt: now }, null)).toEqual(now);
+    expect(overrideStopsAt({ cancelledAt: end }, now)).toEqual(now);
   });
 });
 
