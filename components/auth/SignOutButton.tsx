@@ -3,7 +3,6 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { Button } from "@/components/ui/Button";
-import { authClient } from "@/lib/client/auth-client";
 
 export function SignOutButton({ className = "" }: { className?: string }) {
   const router = useRouter();
@@ -12,6 +11,9 @@ export function SignOutButton({ className = "" }: { className?: string }) {
   async function signOut() {
     setPending(true);
     try {
+      // Loaded on the press: the header is on every page, and the auth client would
+      // otherwise weigh on every page's first load (about 12 kB compressed).
+      const { authClient } = await import("@/lib/client/auth-client");
       await authClient.signOut();
     } finally {
       // Even if the request failed, the sign-in page is the right place to land:

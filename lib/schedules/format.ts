@@ -1,5 +1,6 @@
 // Words for a plan and for what the plug follows, in the person's unit.
 import type { PlanRule } from "@/lib/control/plan";
+import { bandWords } from "@/lib/control/plan-words";
 import type { TemperatureUnit } from "@/lib/domain";
 import type { PlanInput, WindowInput } from "@/lib/schemas/schedule";
 import { toUnit, unitSymbol } from "@/lib/units";
@@ -10,11 +11,8 @@ const temp = (c: number | null, unit: TemperatureUnit) => (c === null ? "?" : `$
 const heats = (lowC: number | null, highC: number | null, unit: TemperatureUnit) =>
   `Heats at or below ${temp(lowC, unit)} until ${temp(highC, unit)}`;
 
-/** "8–10 °C"; "46.4–50 °F". */
-export function formatBand(lowC: number | null, highC: number | null, unit: TemperatureUnit): string {
-  const show = (c: number | null) => (c === null ? "?" : trim(toUnit(c, unit)));
-  return `${show(lowC)}–${show(highC)} ${unitSymbol(unit)}`;
-}
+/** "8–10 °C"; "46.4–50 °F": the one wording of a band (lib/control/plan-words.ts). */
+export const formatBand = bandWords;
 
 /** What a window does: its band, or "On" / "Off". */
 export function windowSetting(w: Pick<WindowInput, "mode" | "lowC" | "highC">, unit: TemperatureUnit): string {
