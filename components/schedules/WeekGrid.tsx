@@ -164,7 +164,6 @@ export function WeekGrid({ windows, faulty, canEdit, dispatch, onEdit, onAdd, an
                         type="button"
                         data-window={p.index}
                         data-opens={p.opensHere ? "" : undefined}
-                        aria-label={label}
                         aria-keyshortcuts={canEdit ? "ArrowUp ArrowDown ArrowLeft ArrowRight Shift+ArrowUp Shift+ArrowDown Enter Delete" : undefined}
                         onKeyDown={(e) => onKeyDown(e, p.index, p.day)}
                         onPointerDown={(e) => startDrag(e, p.index, "move")}
@@ -181,10 +180,18 @@ export function WeekGrid({ windows, faulty, canEdit, dispatch, onEdit, onAdd, an
                         // A gap above each opening, so that windows which touch are told apart.
                         style={{ top: p.from * PX_PER_MIN + (p.opensHere ? 2 : 0), height: Math.max(14, (p.until - p.from) * PX_PER_MIN - (p.opensHere ? 2 : 0)) }}
                       >
+                        {/* Named by its whole description; the short visible text is for the eye. */}
+                        <span className="sr-only">{label}</span>
                         {p.opensHere || p.from === 0 ? (
-                          <span className="block font-semibold">{windowSetting(w, unit)}</span>
+                          <span aria-hidden className="block font-semibold">
+                            {windowSetting(w, unit)}
+                          </span>
                         ) : null}
-                        {p.opensHere && p.until - p.from >= 60 ? <span className="block">{describeTimes(w).replace(" next day", "")}</span> : null}
+                        {p.opensHere && p.until - p.from >= 60 ? (
+                          <span aria-hidden className="block">
+                            {describeTimes(w).replace(" next day", "")}
+                          </span>
+                        ) : null}
                         {canEdit && p.closesHere ? (
                           <span
                             aria-hidden

@@ -1,9 +1,9 @@
-import type { z } from "zod";
+import { z } from "zod";
 import { AppError, errorBody, toAppError, type FieldErrors } from "@/lib/errors";
 
 const MAX_BODY_BYTES = 64 * 1024;
 
-export function fieldErrors(error: z.ZodError): FieldErrors {
+export function fieldErrors(error: z.core.$ZodError): FieldErrors {
   const fields: FieldErrors = {};
   for (const issue of error.issues) {
     const key = issue.path.length ? issue.path.join(".") : "body";
@@ -12,24 +12,27 @@ export function fieldErrors(error: z.ZodError): FieldErrors {
   return fields;
 }
 
-export function firstIssue(error: z.ZodError) {
+export function firstIssue(error: z.core.$ZodError) {
   const issue = error.issues[0];
   const field = issue?.path.length ? issue.path.join(".") : "body";
   return { field, message: issue ? `${field}: ${issue.message}` : "The input is not valid" };
 }
 
-export function badInput(error: z.ZodError): AppError {
+export function badInput(error: z.core.$ZodError): AppError {
   return new AppError("bad_input", firstIssue(error).message, fieldErrors(error));
 }
 
-export function parseWith<S extends z.ZodType>(schema: S, value: unknown): z.infer<S> {
-  const parsed = schema.safeParse(value);
+/** Any zod schema, of the full build or the small one ("zod/mini"). */
+export type AnySchema = z.core.$ZodType;
+
+export function parseWith<S extends AnySchema>(schema: S, value: unknown): z.infer<S> {
+  const parsed = z.safeParse(schema, value);
   if (!parsed.success) throw badInput(parsed.error);
   return parsed.data;
 }
 
 /** Reads a JSON body: too large → 413, not JSON → 400, wrong shape → 400 naming the field. */
-export async function parseJsonBody<S extends z.ZodType>(request: Request, schema: S): Promise<z.infer<S>> {
+export async function parseJsonBody<S extends AnySchema>(request: Request, schema: S): Promise<z.infer<S>> {
   const declared = Number(request.headers.get("content-length") ?? "0");
   if (declared > MAX_BODY_BYTES) throw new AppError("too_large", `The body must be at most ${MAX_BODY_BYTES} bytes`);
   const text = await request.text();

@@ -3,15 +3,15 @@ import type { z } from "zod";
 import type { SiteWithRole } from "@/db/queries/sites";
 import type { Action } from "@/lib/permissions";
 import type { WakePayload } from "@/lib/mqtt/topics";
-import { parseJsonBody, parseWith, route } from "./http";
+import { parseJsonBody, parseWith, route, type AnySchema } from "./http";
 import { requireMemberSite, requirePermission, requireUser, type SessionUser } from "./session";
 import { wakeController } from "./wake";
 
 /** Params of a route under app/api/sites/[siteId]/…: an object schema with the site's id at least. */
 type SiteParamsSchema = z.ZodObject<{ siteId: z.ZodType<string, string> }>;
 
-type BodyOf<B> = B extends z.ZodType ? z.infer<B> : undefined;
-type QueryOf<Q> = Q extends z.ZodType ? z.infer<Q> : undefined;
+type BodyOf<B> = B extends AnySchema ? z.infer<B> : undefined;
+type QueryOf<Q> = Q extends AnySchema ? z.infer<Q> : undefined;
 
 /** What a site-scoped handler is given once its request has passed every check. */
 export type SiteRequest<P extends SiteParamsSchema, B, L, Q = undefined> = {
@@ -26,7 +26,7 @@ export type SiteRequest<P extends SiteParamsSchema, B, L, Q = undefined> = {
   loaded: L;
 };
 
-export type SiteRouteSpec<P extends SiteParamsSchema, B extends z.ZodType | undefined, L, Q extends z.ZodType | undefined = undefined> = {
+export type SiteRouteSpec<P extends SiteParamsSchema, B extends AnySchema | undefined, L, Q extends AnySchema | undefined = undefined> = {
   params: P;
   /** The JSON body's schema; without it the body is not read. */
   body?: B;
@@ -54,7 +54,7 @@ type SegmentParams<P extends SiteParamsSchema> = { [K in keyof z.input<P>]: stri
  * → permission (403) → the handler → the controller's wake-up when declared. Another
  * site's data is a 404, the same as data that does not exist.
  */
-export function siteRoute<P extends SiteParamsSchema, B extends z.ZodType | undefined = undefined, L = undefined, Q extends z.ZodType | undefined = undefined>(
+export function siteRoute<P extends SiteParamsSchema, B extends AnySchema | undefined = undefined, L = undefined, Q extends AnySchema | undefined = undefined>(
   spec: SiteRouteSpec<P, B, L, Q>,
 ): (request: Request, context: { params: Promise<SegmentParams<P>> }) => Promise<Response> {
   return route<SegmentParams<P>>(async (request, rawParams) => {

@@ -2,7 +2,7 @@
 // keyboard and the window form, sees the preview follow before saving, and saves.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_MEMBERS } from "@/db/seed";
-import { expectAccessible, newPage, openBrowser, screenshot, signIn, type Browser } from "./support";
+import { expectAccessible, screenshotOnFailure, newPage, openBrowser, screenshot, signIn, type Browser } from "./support";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -17,6 +17,7 @@ const grower = DEMO_MEMBERS.find((m) => m.role === "grower")!;
 describe("the grower's schedule", () => {
   it("edits a window and sees the preview change, then saves it", async () => {
     const page = await newPage(browser, "desk");
+    screenshotOnFailure(page, "grower-schedule");
     await signIn(page, grower.email, grower.password);
     await page.getByRole("link", { name: "Schedule of Glasshouse heater" }).click();
     await page.waitForURL(/\/plugs\/[0-9a-f-]{36}\/schedule$/);

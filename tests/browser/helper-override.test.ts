@@ -3,7 +3,7 @@
 // controller and broker).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_MEMBERS } from "@/db/seed";
-import { expectAccessible, newPage, openBrowser, screenshot, signIn, type Browser } from "./support";
+import { expectAccessible, screenshotOnFailure, newPage, openBrowser, screenshot, signIn, type Browser } from "./support";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -22,8 +22,9 @@ describe("the helper's override", () => {
     "switches the heater the other way for an hour and shows it confirmed",
     async () => {
       const page = await newPage(browser, "phone");
+      screenshotOnFailure(page, "helper-override");
       await signIn(page, helper.email, helper.password);
-      await page.getByRole("link", { name: "Switch for a while: Glasshouse heater" }).click();
+      await page.getByRole("link", { name: /^Switch for a while\s*: Glasshouse heater$/ }).click();
       await page.waitForURL(/\/plugs\/[0-9a-f-]{36}\/override$/);
       const now = page.getByRole("region", { name: "Now" });
       await expect.poll(() => now.getByText(/^(On|Off)$/).count()).toBe(1);

@@ -3,7 +3,7 @@
 import { randomUUID } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_MEMBERS } from "@/db/seed";
-import { expectAccessible, newPage, openBrowser, screenshot, signIn, type Browser } from "./support";
+import { expectAccessible, screenshotOnFailure, newPage, openBrowser, screenshot, signIn, type Browser } from "./support";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -19,6 +19,7 @@ describe("an invitation", () => {
   it("is sent by the owner, read from the sink and accepted by a newcomer", async () => {
     const email = `newcomer-${randomUUID().slice(0, 8)}@fernhollow.example`;
     const page = await newPage(browser, "desk");
+    screenshotOnFailure(page, "invitation");
     await signIn(page, owner.email, owner.password);
     await page.getByRole("navigation", { name: "Site sections" }).getByRole("link", { name: "Members" }).click();
     await page.getByLabel("E-mail address").fill(email);

@@ -3,7 +3,7 @@
 import { randomUUID } from "node:crypto";
 import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { expectAccessible, newPage, openBrowser, screenshot, type Browser } from "./support";
+import { expectAccessible, screenshotOnFailure, newPage, openBrowser, screenshot, type Browser } from "./support";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -20,6 +20,7 @@ async function fill(page: Page, values: Record<string, string>) {
 describe("a new owner", () => {
   it("signs up, adds a house with a heater plug and a sensor, and sees it on the overview", async () => {
     const page = await newPage(browser, "phone");
+    screenshotOnFailure(page, "new-owner");
     await page.context().clearCookies();
     await page.goto("/sign-up");
     await fill(page, {
@@ -35,20 +36,20 @@ describe("a new owner", () => {
     await expectAccessible(page, "an empty site");
 
     await page.getByRole("link", { name: "Add a house" }).click();
-    await fill(page, { Name: "Plot glasshouse", Length: "4", Width: "2.5", "Eave height": "1.8", "Ridge height": "2.4" });
+    await fill(page, { Name: "Plot glasshouse", "Length (m)": "4", "Width (m)": "2.5", "Eave height (m)": "1.8", "Ridge height (m)": "2.4" });
     await page.getByRole("button", { name: "Add the house" }).click();
     await page.waitForURL(/\/houses\/[0-9a-f-]{36}/);
     const housePage = new URL(page.url()).pathname;
     await screenshot(page, "new-owner-house-added");
 
-    await page.getByRole("link", { name: "Add a plug" }).click();
-    await fill(page, { Name: "Plot heater", "Device id": "plot-heater", "Rated power": "2000", "Plug rating": "13" });
+    await page.getByRole("link", { name: "Add a plug" }).first().click();
+    await fill(page, { Name: "Plot heater", "Device id": "plot-heater", "Rated power (W)": "2000", "Plug rating (A)": "13" });
     await page.getByRole("button", { name: "Add the plug" }).click();
     await page.waitForURL(/\/devices\/plug\/[0-9a-f-]{36}/);
     await screenshot(page, "new-owner-plug-added");
 
     await page.goto(housePage);
-    await page.getByRole("link", { name: "Add a sensor" }).click();
+    await page.getByRole("link", { name: "Add a sensor" }).first().click();
     await fill(page, { Name: "Plot air", "Device id": "plot-air" });
     await page.getByRole("button", { name: "Add the sensor" }).click();
     await page.waitForURL(/\/devices\/sensor\/[0-9a-f-]{36}/);

@@ -6,7 +6,7 @@ import os from "node:os";
 import path from "node:path";
 import AxeBuilder from "@axe-core/playwright";
 import { chromium, type BrowserContext, type Page } from "playwright-core";
-import { expect } from "vitest";
+import { expect, onTestFailed } from "vitest";
 
 export const CHROMIUM = "/usr/bin/chromium";
 export const SCREENSHOTS = path.resolve("test-results/screenshots");
@@ -82,4 +82,11 @@ export async function expectAccessible(page: Page, what: string) {
     bad.map((v) => `${v.impact}: ${v.id} — ${v.help} (${v.nodes.map((n) => n.target.join(" ")).slice(0, 3).join("; ")})`),
     `accessibility of ${what}`,
   ).toEqual([]);
+}
+
+/** Keeps a screenshot of `page` as it was when the running test failed (<name>-failed-<width>.png). */
+export function screenshotOnFailure(page: Page, name: string) {
+  onTestFailed(async () => {
+    if (!page.isClosed()) await screenshot(page, `${name}-failed`).catch(() => undefined);
+  });
 }

@@ -3,7 +3,7 @@
 // serious or critical accessibility violations.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_MEMBERS } from "@/db/seed";
-import { expectAccessible, newPage, openBrowser, screenshot, signIn, type Browser, type Width } from "./support";
+import { expectAccessible, screenshotOnFailure, newPage, openBrowser, screenshot, signIn, type Browser, type Width } from "./support";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -16,6 +16,7 @@ afterAll(async () => {
 describe.each(DEMO_MEMBERS)("the $role's sections", (member) => {
   it.each(["phone", "desk"] as Width[])("open cleanly at %s width", async (width) => {
     const page = await newPage(browser, width);
+    screenshotOnFailure(page, `tour-${member.role}`);
     await signIn(page, member.email, member.password);
     const nav = page.getByRole("navigation", { name: "Site sections" });
     const links = await nav.getByRole("link").evaluateAll((as) => as.map((a) => ({ href: a.getAttribute("href")!, label: a.textContent!.trim() })));

@@ -2,7 +2,7 @@
 // API refuses a write sent from the signed-in browser.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEMO_MEMBERS, DEMO_SITE, demoId } from "@/db/seed";
-import { newPage, openBrowser, screenshot, signIn, type Browser } from "./support";
+import { screenshotOnFailure, newPage, openBrowser, screenshot, signIn, type Browser } from "./support";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -18,6 +18,7 @@ const heater = demoId("plug:glass-heater");
 describe("the viewer", () => {
   it("cannot edit anything", async () => {
     const page = await newPage(browser, "phone");
+    screenshotOnFailure(page, "viewer");
     await signIn(page, viewer.email, viewer.password);
     const base = new URL(page.url()).pathname;
     await expect.poll(() => page.getByText("Glasshouse heater").count()).toBeGreaterThan(0);

@@ -44,8 +44,9 @@ export default async function SchedulesPage({ params }: Props) {
                   </p>
                   <p className="text-sm text-frost-700">{summarizePlan(plan, settings.temperatureUnit)}</p>
                 </div>
-                <Link href={`/sites/${site.slug}/plugs/${plug.id}/schedule`} className={buttonClasses("secondary")} aria-label={`${canEdit ? "Edit" : "View"} the schedule of ${plug.name}`}>
+                <Link href={`/sites/${site.slug}/plugs/${plug.id}/schedule`} className={buttonClasses("secondary")}>
                   {canEdit ? "Edit schedule" : "View schedule"}
+                  <span className="sr-only"> of {plug.name}</span>
                 </Link>
               </Card>
             ))}
