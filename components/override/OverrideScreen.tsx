@@ -50,9 +50,13 @@ export function OverrideScreen({ siteId, timeZone, initial, canCreate, canCancel
   const now = useTicking(initial.at);
   const [press, setPress] = useState<Press | null>(null);
 
-  // A report or presence change also changes "since", the cause and the guard: read them again.
+  // A report or presence change also changes "since", the cause and the guard: read them
+  // again, and once more shortly after, when the controller has stored the switch.
   useEffect(() => {
-    if (events.seq > 0) void mutate();
+    if (events.seq === 0) return;
+    void mutate();
+    const again = setTimeout(() => void mutate(), 1500);
+    return () => clearTimeout(again);
   }, [events.seq, mutate]);
 
   const active = panel.active;
@@ -63,7 +67,7 @@ export function OverrideScreen({ siteId, timeZone, initial, canCreate, canCancel
   return (
     <div className="flex flex-col gap-6">
       {error ? <p className="text-base text-ember-700">Could not refresh: {error.message}</p> : null}
-      <PlugNow panel={panel} now={now} timeZone={timeZone} online={online} />
+      <PlugNow panel={panel} now={now} timeZone={timeZone} online={online} reportedOn={events.live && events.report ? events.report.on : null} />
       {active ? (
         <ActiveOverride
           siteId={siteId}

@@ -3,10 +3,25 @@ import type { OverridePanelJson } from "./panel-data";
 import { formatSiteTime } from "./time";
 
 /** The plug's state now: on or off in large type, since when, why it is kept so (and why it last switched, when that differs), and what holds a change back. */
-export function PlugNow({ panel, now, timeZone, online }: { panel: OverridePanelJson; now: Date; timeZone: string; online: boolean | null }) {
+export function PlugNow({
+  panel,
+  now,
+  timeZone,
+  online,
+  reportedOn,
+}: {
+  panel: OverridePanelJson;
+  now: Date;
+  timeZone: string;
+  online: boolean | null;
+  /** The plug's own latest report heard live, which may be newer than the stored state. */
+  reportedOn: boolean | null;
+}) {
   const state = panel.now;
-  const on = state.reportedOn ?? state.on;
-  const since = state.since ? new Date(state.since) : null;
+  const on = reportedOn ?? state.reportedOn ?? state.on;
+  // "Since" and the cause belong to the stored state: hide them while a newer report is not stored yet.
+  const stored = on === (state.reportedOn ?? state.on);
+  const since = stored && state.since ? new Date(state.since) : null;
   const guard = state.guardUntil ? new Date(state.guardUntil) : null;
   const cause = state.presentCause ?? state.cause;
   const isOnline = online ?? state.online;
@@ -23,7 +38,7 @@ export function PlugNow({ panel, now, timeZone, online }: { panel: OverridePanel
         <span className="text-4xl font-bold text-frost-950">{on === true ? "On" : on === false ? "Off" : "Not known"}</span>
       </p>
       <p className="mt-2 text-base text-frost-800">
-        {cause ? SWITCH_CAUSE_LABELS[cause] : "Not switched by Cloche yet"}
+        {!stored ? "Just reported by the plug" : cause ? SWITCH_CAUSE_LABELS[cause] : "Not switched by Cloche yet"}
         {since ? <span className="text-frost-600"> · since {formatSiteTime(since, now, timeZone)}</span> : null}
       </p>
       {state.cause && state.presentCause && state.cause !== state.presentCause ? (

@@ -30,8 +30,8 @@ describe("the grower's schedule", () => {
     const window = page.locator("[data-window='0'][data-opens]").first();
     await window.focus();
     await page.keyboard.press("Enter");
-    await page.getByLabel("Low edge (°C)").fill("6");
-    await page.getByLabel("High edge (°C)").fill("9");
+    await page.getByLabel("Low edge (°C)", { exact: true }).fill("6");
+    await page.getByLabel("High edge (°C)", { exact: true }).fill("9");
     await page.getByRole("button", { name: "Keep this window" }).click();
 
     // The preview follows the draft before anything is saved.

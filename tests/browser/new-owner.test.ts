@@ -13,7 +13,9 @@ afterAll(async () => {
   await browser?.close();
 });
 
+/** Fills a form once its page is interactive (a value typed before hydration would be reset). */
 async function fill(page: Page, values: Record<string, string>) {
+  await page.waitForLoadState("networkidle");
   for (const [label, value] of Object.entries(values)) await page.getByLabel(label, { exact: true }).fill(value);
 }
 
