@@ -38,6 +38,7 @@ describe("a new owner", () => {
     await expectAccessible(page, "an empty site");
 
     await page.getByRole("link", { name: "Add a house" }).click();
+    await page.waitForURL(/\/houses\/new$/);
     await fill(page, { Name: "Plot glasshouse", "Length (m)": "4", "Width (m)": "2.5", "Eave height (m)": "1.8", "Ridge height (m)": "2.4" });
     await page.getByRole("button", { name: "Add the house" }).click();
     await page.waitForURL(/\/houses\/[0-9a-f-]{36}/);
@@ -45,6 +46,7 @@ describe("a new owner", () => {
     await screenshot(page, "new-owner-house-added");
 
     await page.getByRole("link", { name: "Add a plug" }).first().click();
+    await page.waitForURL(/\/devices\/plugs\/new/);
     await fill(page, { Name: "Plot heater", "Device id": "plot-heater", "Rated power (W)": "2000", "Plug rating (A)": "13" });
     await page.getByRole("button", { name: "Add the plug" }).click();
     await page.waitForURL(/\/devices\/plug\/[0-9a-f-]{36}/);
@@ -52,6 +54,7 @@ describe("a new owner", () => {
 
     await page.goto(housePage);
     await page.getByRole("link", { name: "Add a sensor" }).first().click();
+    await page.waitForURL(/\/devices\/sensors\/new/);
     await fill(page, { Name: "Plot air", "Device id": "plot-air" });
     await page.getByRole("button", { name: "Add the sensor" }).click();
     await page.waitForURL(/\/devices\/sensor\/[0-9a-f-]{36}/);
