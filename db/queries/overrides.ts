@@ -67,14 +67,15 @@ const isActive = (o: StoredOverride, stops: Date | null, now: Date) =>
   o.cancelledAt === null && o.startsAt <= now && (stops === null || stops > now);
 
 /** What the audit log keeps of an override. */
-const auditView = (o: StoredOverride) => ({
-  plugId: o.plugId,
+/** An override as the activity page shows it, named by its plug. */
+const auditView = (o: StoredOverride, plugName: string) => ({
+  name: plugName,
   on: o.on,
   startsAt: o.startsAt,
   endsAt: o.endsAt,
   untilNextChange: o.untilNextChange,
   reason: o.reason,
-  cancelledAt: o.cancelledAt,
+  ...(o.cancelledAt ? { cancelledAt: o.cancelledAt } : {}),
 });
 
 export type OverrideView = {
@@ -194,16 +195,16 @@ async function openOverrides(tx: Database, plugId: string, now: Date) {
     .for("update");
 }
 
-async function cancelRow(tx: Database, o: StoredOverride, siteId: string, userId: string, now: Date) {
+async function cancelRow(tx: Database, o: StoredOverride, plug: Pick<OverridePlug, "siteId" | "name">, userId: string, now: Date) {
   await tx.update(overrides).set({ cancelledAt: now, cancelledBy: userId }).where(eq(overrides.id, o.id));
   await recordAudit(tx, {
-    siteId,
+    siteId: plug.siteId,
     userId,
     action: "override.cancel",
     entityType: "override",
     entityId: o.id,
-    before: auditView(o),
-    after: auditView({ ...o, cancelledAt: now, cancelledBy: userId }),
+    before: auditView(o, plug.name),
+    after: auditView({ ...o, cancelledAt: now, cancelledBy: userId }, plug.name),
   });
 }
 
@@ -252,11 +253,11 @@ export async function createOverride({
     for (const o of await openOverrides(tx, plug.id, now)) {
       if (o.untilNextChange && !o.endsAt) plugSchedules ??= await getSchedulesOfPlug(tx, plug.id);
       if (!isActive(o, stopsAt(o, plugSchedules ?? [], timeZone), now)) continue;
-      await cancelRow(tx, o, plug.siteId, userId, now);
+      await cancelRow(tx, o, plug, userId, now);
       cancelled.push(o.id);
     }
     await tx.insert(overrides).values(row);
-    await recordAudit(tx, { siteId: plug.siteId, userId, action: "override.create", entityType: "override", entityId: row.id, after: auditView(row) });
+    await recordAudit(tx, { siteId: plug.siteId, userId, action: "override.create", entityType: "override", entityId: row.id, after: auditView(row, plug.name) });
   });
   return { id: row.id, startsAt: now, endsAt: end.endsAt, untilNextChange: end.untilNextChange, stopsAt: end.endsAt ?? next, cancelled };
 }
@@ -286,7 +287,7 @@ export async function cancelOverride({
     if (!o) throw new AppError("not_found", "No such override for this plug.");
     if (o.cancelledAt) throw new AppError("conflict", "This override has already been cancelled.");
     if (!isActive(o, stopsAt(o, plugSchedules, timeZone), now)) throw new AppError("conflict", "This override has already ended.");
-    await cancelRow(tx, o, plug.siteId, userId, now);
+    await cancelRow(tx, o, plug, userId, now);
   });
   return { id: overrideId, cancelledAt: now };
 }
