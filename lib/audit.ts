@@ -94,7 +94,9 @@ export function formatAuditValue(value: unknown, timeZone: string): string | nul
   }
   if (Array.isArray(value)) {
     if (value.every((v) => v === null || ["string", "number", "boolean"].includes(typeof v))) {
-      return value.length ? value.map((v) => formatAuditValue(v, timeZone) ?? "—").join(", ") : "none";
+      const items = value.map((v) => formatAuditValue(v, timeZone) ?? "—");
+      // Items that hold commas themselves (a window in words) are set apart by semicolons.
+      return items.length ? items.join(items.some((i) => i.includes(",")) ? "; " : ", ") : "none";
     }
     return `${value.length} ${value.length === 1 ? "entry" : "entries"}`;
   }

@@ -8,7 +8,17 @@ import { AppError } from "@/lib/errors";
 import { planLimitIssues, type PlanInput } from "@/lib/schemas/schedule";
 import { outsideFromPlan, planFromSchedules, type StoredSchedule } from "@/lib/schedules/plan";
 import { recurrenceFromDays } from "@/lib/schedules/week";
+import { describeWindow } from "@/lib/schedules/format";
 import { recordAudit } from "./audit";
+
+/** A plan as the activity page lists it: each window and skip day in words (°C, as stored), so a change reads as what changed. */
+function planInWords(plan: PlanInput) {
+  return {
+    ...plan,
+    windows: plan.windows.map((w) => describeWindow(w, "c")),
+    skipDays: plan.skipDays.map((s) => (s.note ? `${s.day} (${s.note})` : s.day)),
+  };
+}
 
 /** The plug a schedule belongs to, with its house's safety limits. */
 export type SchedulePlug = {
@@ -166,8 +176,8 @@ export async function replacePlugPlan({ plug, userId, plan }: { plug: SchedulePl
       action: "schedule.update",
       entityType: "plug",
       entityId: plug.id,
-      before: before.plan,
-      after: after.plan,
+      before: planInWords(before.plan),
+      after: planInWords(after.plan),
     });
   });
   return getPlugPlan({ ...plug, ...outsideFromPlan(plan) });

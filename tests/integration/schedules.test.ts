@@ -122,8 +122,12 @@ describe("the plug's plan", () => {
       .orderBy(desc(auditLog.id))
       .limit(1);
     expect(audit).toMatchObject({ action: "schedule.update", entityType: "plug", userId: people.grower.userId });
-    expect((audit!.before as { windows: { lowC: number }[] }).windows[0]!.lowC).toBe(10);
-    expect((audit!.after as { windows: unknown[]; skipDays: unknown[] }).skipDays).toEqual(goodPlan.skipDays);
+    // Windows and skip days in words, so the activity page shows what changed.
+    expect((audit!.before as { windows: string[] }).windows).toEqual([expect.stringContaining("10–12 °C")]);
+    const after = audit!.after as { windows: string[]; skipDays: string[]; frostLowC: number };
+    expect(after.windows).toEqual([expect.stringMatching(/06:00.*20–25 °C$/), expect.stringMatching(/^Mon–Fri 22:00.*10–12 °C$/)]);
+    expect(after.skipDays).toEqual(["2026-12-25 (Away for Christmas)"]);
+    expect(after.frostLowC).toBe(3);
 
   });
 

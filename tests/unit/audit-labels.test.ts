@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { auditSubject, decodeAuditCursor, describeAuditAction, describeAuditChanges, encodeAuditCursor, fieldLabel, localDayRange } from "@/lib/audit";
+import { auditSubject, decodeAuditCursor, formatAuditValue, describeAuditAction, describeAuditChanges, encodeAuditCursor, fieldLabel, localDayRange } from "@/lib/audit";
 import { invitationMail, invitationState } from "@/lib/invitations";
 
 describe("audit labels", () => {
@@ -7,6 +7,12 @@ describe("audit labels", () => {
     expect(describeAuditAction("member.role")).toBe("Changed a member's role");
     expect(describeAuditAction("plug.calibrate_meter")).toBe("Plug: calibrate meter");
     expect(describeAuditAction("gizmo.spin")).toBe("gizmo.spin");
+  });
+
+  it("lists short values with commas, and values that hold commas (windows in words) with semicolons", () => {
+    expect(formatAuditValue(["mo", "tu"], "UTC")).toBe("mo, tu");
+    expect(formatAuditValue(["Mon–Fri 06:00–21:00, 8–10 °C", "Sat 07:00–09:00, On"], "UTC")).toBe("Mon–Fri 06:00–21:00, 8–10 °C; Sat 07:00–09:00, On");
+    expect(formatAuditValue([], "UTC")).toBe("none");
   });
 
   it("names fields with their units", () => {
