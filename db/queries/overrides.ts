@@ -12,6 +12,7 @@ import { overrideEndsAt } from "@/lib/control/plan";
 import { loadSchedulesOfPlugs } from "@/db/plug-schedules";
 import { nextChange, type Schedule } from "@/lib/schedule";
 import type { OverrideInput } from "@/lib/schemas/override";
+import { transactionWithRetry } from "@/db/transaction";
 import { recordAudit } from "./audit";
 
 export type OverridePlug = {
@@ -247,7 +248,8 @@ export async function createOverride({
     createdAt: now,
   };
   const cancelled: string[] = [];
-  await db.transaction(async (tx) => {
+  await transactionWithRetry(db, async (tx) => {
+    cancelled.length = 0;
     // One change at a time per plug: two presses at once must not leave two overrides in force.
     await tx.select({ id: plugs.id }).from(plugs).where(eq(plugs.id, plug.id)).for("update");
     for (const o of await openOverrides(tx, plug.id, now)) {
@@ -278,7 +280,7 @@ export async function cancelOverride({
 }): Promise<{ id: string; cancelledAt: Date }> {
   const db = getDb();
   const plugSchedules = await getSchedulesOfPlug(db, plug.id);
-  await db.transaction(async (tx) => {
+  await transactionWithRetry(db, async (tx) => {
     const [o] = await tx
       .select()
       .from(overrides)

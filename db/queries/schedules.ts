@@ -9,6 +9,7 @@ import { planLimitIssues, type PlanInput } from "@/lib/schemas/schedule";
 import { outsideFromPlan, planFromSchedules, type StoredSchedule } from "@/lib/schedules/plan";
 import { recurrenceFromDays } from "@/lib/schedules/week";
 import { describeWindow } from "@/lib/schedules/format";
+import { transactionWithRetry } from "@/db/transaction";
 import { recordAudit } from "./audit";
 
 /** A plan as the activity page lists it: each window and skip day in words (°C, as stored), so a change reads as what changed. */
@@ -130,7 +131,7 @@ export function assertInsideLimits(plan: PlanInput, plug: SchedulePlug) {
 export async function replacePlugPlan({ plug, userId, plan }: { plug: SchedulePlug; userId: string; plan: PlanInput }) {
   assertInsideLimits(plan, plug);
   const now = new Date();
-  await getDb().transaction(async (tx) => {
+  await transactionWithRetry(getDb(), async (tx) => {
     // Read and lock the plug's row first, so two saves of one plug follow one another.
     await tx.select({ id: plugs.id }).from(plugs).where(eq(plugs.id, plug.id)).for("update");
     const before = await getPlugPlan(plug, tx, now);
