@@ -7,12 +7,12 @@ import { useForm, useWatch } from "react-hook-form";
 import { HeaterSafetyNote } from "@/components/safety/HeaterSafetyNote";
 import { Field } from "@/components/ui/Field";
 import { Select } from "@/components/ui/Select";
-import { TextInput } from "@/components/ui/TextInput";
 import { placeFieldErrors, sendJson } from "@/lib/client/api";
 import { APPLIANCE_KINDS, APPLIANCE_KIND_LABELS, FAILSAFE_MODES, FAILSAFE_MODE_LABELS } from "@/lib/domain";
 import { plugSchemaFor, type Mains, type PlugFormInput, type PlugInput } from "@/lib/schemas/plug";
 import { FormShell } from "./FormShell";
 import { LoadCheck } from "./LoadCheck";
+import { DeviceIdentityFields } from "./DeviceIdentityFields";
 import { NumberField } from "./NumberField";
 
 const FIELDS = [
@@ -121,27 +121,15 @@ export function PlugForm({ siteId, slug, mains, houses, sensors, plug, houseId }
     <FormShell onSubmit={onSubmit} error={serverError} pending={isSubmitting} submitLabel={plug ? "Save the plug" : "Add the plug"} pendingLabel="Saving…">
       {saved ? <p role="status" className="rounded-lg bg-leaf-50 px-3 py-2 text-sm text-leaf-800">Saved.</p> : null}
       <div className="grid gap-4 sm:grid-cols-2">
-        <Field label="Name" hint="E.g. “Glasshouse heater”." error={errors.name?.message}>
-          {(c) => <TextInput {...c} {...register("name")} />}
-        </Field>
-        <Field
-          label="Device id"
-          hint={plug ? "Fixed once added: the device’s topics and sign-in are named after it." : "Its name on the broker: lower-case letters, digits and dashes, e.g. glass-heater."}
-          error={errors.deviceId?.message}
-        >
-          {(c) => <TextInput {...c} autoCapitalize="none" autoCorrect="off" spellCheck={false} readOnly={Boolean(plug)} {...register("deviceId")} />}
-        </Field>
-        <Field label="House" error={errors.houseId?.message}>
-          {(c) => (
-            <Select {...c} {...register("houseId")}>
-              {houses.map((h) => (
-                <option key={h.id} value={h.id}>
-                  {h.name}
-                </option>
-              ))}
-            </Select>
-          )}
-        </Field>
+        <DeviceIdentityFields
+          fields={{ name: register("name"), deviceId: register("deviceId"), houseId: register("houseId") }}
+          errors={errors}
+          houses={houses}
+          added={Boolean(plug)}
+          nameExample="Glasshouse heater"
+          idExample="glass-heater"
+          topics="topics"
+        />
         <Field label="Sensor its bands follow" hint="A sensor in the same house. Without one, only plain on/off windows work." error={errors.sensorId?.message}>
           {(c) => (
             <Select {...c} {...sensorField}>

@@ -4,10 +4,8 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { Field } from "@/components/ui/Field";
-import { Select } from "@/components/ui/Select";
-import { TextInput } from "@/components/ui/TextInput";
 import { placeFieldErrors, sendJson } from "@/lib/client/api";
+import { DeviceIdentityFields } from "./DeviceIdentityFields";
 import { sensorSchema, type SensorInput } from "@/lib/schemas/sensor";
 import { FormShell } from "./FormShell";
 
@@ -57,27 +55,15 @@ export function SensorForm({ siteId, slug, houses, sensor, houseId }: SensorForm
   return (
     <FormShell onSubmit={onSubmit} error={serverError} pending={isSubmitting} submitLabel={sensor ? "Save the sensor" : "Add the sensor"} pendingLabel="Saving…">
       {saved ? <p role="status" className="rounded-lg bg-leaf-50 px-3 py-2 text-sm text-leaf-800">Saved.</p> : null}
-      <Field label="Name" hint="E.g. “Glasshouse air”." error={errors.name?.message}>
-        {(c) => <TextInput {...c} {...register("name")} />}
-      </Field>
-      <Field
-        label="Device id"
-        hint={sensor ? "Fixed once added: the device’s topic and sign-in are named after it." : "Its name on the broker: lower-case letters, digits and dashes, e.g. glass-air."}
-        error={errors.deviceId?.message}
-      >
-        {(c) => <TextInput {...c} autoCapitalize="none" autoCorrect="off" spellCheck={false} readOnly={Boolean(sensor)} {...register("deviceId")} />}
-      </Field>
-      <Field label="House" error={errors.houseId?.message}>
-        {(c) => (
-          <Select {...c} {...register("houseId")}>
-            {houses.map((h) => (
-              <option key={h.id} value={h.id}>
-                {h.name}
-              </option>
-            ))}
-          </Select>
-        )}
-      </Field>
+      <DeviceIdentityFields
+        fields={{ name: register("name"), deviceId: register("deviceId"), houseId: register("houseId") }}
+        errors={errors}
+        houses={houses}
+        added={Boolean(sensor)}
+        nameExample="Glasshouse air"
+        idExample="glass-air"
+        topics="topic"
+      />
     </FormShell>
   );
 }
