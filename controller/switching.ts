@@ -62,6 +62,7 @@ export function createSwitching(options: SwitchingOptions) {
           fromOn: row.fromOn,
           toOn: row.toOn,
           cause: row.cause,
+          ratedWatts: runtime.config.applianceWatts,
           readingTempC: row.readingTempC,
           readingAt: at(row.readingAtMs),
           userId: row.userId,

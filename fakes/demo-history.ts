@@ -126,6 +126,7 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
         fromOn: r.on,
         toOn: decision.on,
         cause: decision.cause,
+        ratedWatts: r.plug.applianceWatts,
         readingTempC: decision.readingTempC,
         readingAt: decision.readingTempC === null ? null : new Date(t),
         commandId: historyId(r.plug.id, t),

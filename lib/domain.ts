@@ -183,3 +183,24 @@ export const AUDIT_FIELD_LABELS: Record<string, string> = {
   ratedCurrentA: "Plug rating (A)",
   expiresAt: "Expires",
 };
+
+/** Where a sensor hangs: in its house, or outside (the site's outside temperature). */
+export const SENSOR_PLACEMENTS = ["inside", "outside"] as const;
+export type SensorPlacement = (typeof SENSOR_PLACEMENTS)[number];
+
+export const SENSOR_PLACEMENT_LABELS: Record<SensorPlacement, string> = {
+  inside: "Inside the house",
+  outside: "Outside (outdoor temperature)",
+};
+
+/**
+ * How heating degree-days are counted: the UK's base 15.5 °C with the Met Office
+ * max–min method, or the US base 65 °F with the daily mean.
+ */
+export const DEGREE_DAY_METHODS = ["uk_met_office", "us_mean"] as const;
+export type DegreeDayMethod = (typeof DEGREE_DAY_METHODS)[number];
+
+export const DEGREE_DAY_METHOD_LABELS: Record<DegreeDayMethod, string> = {
+  uk_met_office: "Base 15.5 °C, from the day's lowest and highest (UK Met Office)",
+  us_mean: "Base 65 °F, from the day's mean (US)",
+};

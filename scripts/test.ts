@@ -81,6 +81,8 @@ async function main() {
   const began = Date.now();
   // The controller is also tested against an external broker: Debian's mosquitto.
   ensureProgram(["mosquitto"], "mosquitto", "mosquitto (MQTT broker for the external-broker test)", (line) => say(line));
+  // The report tests read the PDF export back as text.
+  ensureProgram(["pdftotext"], "poppler-utils", "pdftotext (reads the PDF reports back in the tests)", (line) => say(line));
   database = await startLocalDatabase({ folder: TEST_DATABASE_FOLDER, port: 0, database: "cloche_test", fresh: true, scratchDatabases: true });
   await migrateDatabase(database.url);
   say(`test database ready on 127.0.0.1:${database.port}`);

@@ -1,4 +1,4 @@
-import { APPLIANCE_KINDS, DEFAULT_STALE_AFTER_S, FAILSAFE_MODES, OUTSIDE_WINDOW_MODES } from "../../lib/domain";
+import { APPLIANCE_KINDS, DEFAULT_STALE_AFTER_S, FAILSAFE_MODES, OUTSIDE_WINDOW_MODES, SENSOR_PLACEMENTS } from "../../lib/domain";
 import {
   boolean,
   decimal,
@@ -30,6 +30,8 @@ export const sensors = mysqlTable(
     /** MQTT device id: the `{device}` segment of its topics. */
     deviceId: varchar("device_id", { length: 64 }).notNull(),
     name: varchar("name", { length: 80 }).notNull(),
+    /** Inside its house, or outside it (the site's outside temperature, for degree-days). */
+    placement: mysqlEnum("placement", SENSOR_PLACEMENTS).notNull().default("inside"),
     /** Retired: kept for its history, no longer signed in, read or shown among the working devices. */
     retiredAt: instant("retired_at"),
     createdAt: createdAt(),

@@ -1,4 +1,4 @@
-import { CONTINUOUS_LOAD_PERCENT, ROLES } from "../../lib/domain";
+import { CONTINUOUS_LOAD_PERCENT, DEGREE_DAY_METHODS, ROLES } from "../../lib/domain";
 import { char, index, mysqlEnum, mysqlTable, uniqueIndex, varchar, smallint, tinyint } from "drizzle-orm/mysql-core";
 import { user } from "./auth";
 import { createdAt, id, ref, updatedAt } from "./columns";
@@ -17,6 +17,7 @@ export const sites = mysqlTable("sites", {
   mainsVoltage: smallint("mains_voltage").notNull().default(230),
   /** A load that runs for hours may draw at most this percent of its plug's rating (80 % in NEC 210.19(A)/210.20(A)). */
   continuousLoadPercent: tinyint("continuous_load_percent").notNull().default(CONTINUOUS_LOAD_PERCENT.default),
+  degreeDayMethod: mysqlEnum("degree_day_method", DEGREE_DAY_METHODS).notNull().default("uk_met_office"),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
 });

@@ -1,4 +1,4 @@
-import { bigint, boolean, decimal, index, int, mysqlEnum, mysqlTable, varchar } from "drizzle-orm/mysql-core";
+import { bigint, boolean, date, decimal, double, index, int, mysqlEnum, mysqlTable, primaryKey, varchar } from "drizzle-orm/mysql-core";
 import { SWITCH_CAUSES } from "../../lib/domain";
 import { user } from "./auth";
 import { instant, ref } from "./columns";
@@ -19,6 +19,8 @@ export const switchEvents = mysqlTable(
     fromOn: boolean("from_on"),
     toOn: boolean("to_on").notNull(),
     cause: mysqlEnum("cause", SWITCH_CAUSES).notNull(),
+    /** The appliance's rated watts when the switch was made: energy "from rated power" uses it. */
+    ratedWatts: int("rated_watts"),
     readingTempC: decimal("reading_temp_c", { precision: 5, scale: 2, mode: "number" }),
     readingAt: instant("reading_at"),
     userId: ref("user_id").references(() => user.id, { onDelete: "set null" }),
@@ -34,5 +36,46 @@ export const switchEvents = mysqlTable(
      */
     withdrawnAt: instant("withdrawn_at"),
   },
-  (t) => [index("switch_events_plug_at_idx").on(t.plugId, t.at), index("switch_events_at_idx").on(t.at)],
+  (t) => [
+    index("switch_events_plug_at_idx").on(t.plugId, t.at),
+    index("switch_events_at_idx").on(t.at),
+    index("switch_events_cause_at_idx").on(t.cause, t.at),
+  ],
+);
+
+/** A plug's energy meter as it reported it: metered kWh comes from the differences. */
+export const meterSamples = mysqlTable(
+  "meter_samples",
+  {
+    plugId: ref("plug_id")
+      .notNull()
+      .references(() => plugs.id, { onDelete: "cascade" }),
+    at: instant("at").notNull(),
+    /** The plug's own counter; it starts again from zero when the plug is reset. */
+    wattHours: bigint("watt_hours", { mode: "number", unsigned: true }).notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.plugId, t.at] })],
+);
+
+/**
+ * The energy roll-up: each plug's runtime and energy per local day and tariff rate,
+ * from the switch log's closed on-intervals and the meter's samples (db/energy-days.ts
+ * keeps it; `npm run energy:rebuild` makes it again from the log). `rateKey` is the
+ * tariff rate in force, or "" where no tariff covers the time.
+ */
+export const energyDays = mysqlTable(
+  "energy_days",
+  {
+    plugId: ref("plug_id")
+      .notNull()
+      .references(() => plugs.id, { onDelete: "cascade" }),
+    day: date("day", { mode: "string" }).notNull(),
+    rateKey: varchar("rate_key", { length: 36 }).notNull().default(""),
+    onMs: bigint("on_ms", { mode: "number" }).notNull(),
+    /** Rated watts × milliseconds on: exact, so sums agree with the raw log to the watt-second. */
+    ratedWattMs: bigint("rated_watt_ms", { mode: "number" }).notNull(),
+    /** From the plug's meter, in watt-seconds; null where the plug does not meter. */
+    meteredWs: double("metered_ws"),
+  },
+  (t) => [primaryKey({ columns: [t.plugId, t.day, t.rateKey] })],
 );

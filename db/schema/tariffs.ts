@@ -1,4 +1,4 @@
-import { date, decimal, index, mysqlEnum, mysqlTable, time, varchar } from "drizzle-orm/mysql-core";
+import { date, decimal, index, mysqlEnum, mysqlTable, time, uniqueIndex, varchar } from "drizzle-orm/mysql-core";
 import { createdAt, id, ref, updatedAt } from "./columns";
 import { sites } from "./sites";
 
@@ -16,6 +16,8 @@ export const tariffs = mysqlTable(
     kind: mysqlEnum("kind", TARIFF_KINDS).notNull(),
     /** In the site's currency per day. */
     standingChargePerDay: decimal("standing_charge_per_day", { precision: 10, scale: 4, mode: "number" }).notNull(),
+    /** Tax (VAT, sales tax) in percent, added to the energy and the standing charge. */
+    taxPercent: decimal("tax_percent", { precision: 5, scale: 2, mode: "number" }).notNull().default(0),
     /** First and last local date the tariff applies (inclusive); open-ended when null. */
     validFrom: date("valid_from", { mode: "string" }).notNull(),
     validUntil: date("valid_until", { mode: "string" }),
@@ -46,7 +48,10 @@ export const tariffRates = mysqlTable(
   (t) => [index("tariff_rates_tariff_idx").on(t.tariffId)],
 );
 
-/** The dates of one electricity bill, so costs can be split as the bill splits them. */
+/**
+ * One electricity bill: its dates (local, inclusive), and what the bill itself says
+ * (kWh and amount, tax included) for the bill check.
+ */
 export const billPeriods = mysqlTable(
   "bill_periods",
   {
@@ -57,7 +62,10 @@ export const billPeriods = mysqlTable(
     startsOn: date("starts_on", { mode: "string" }).notNull(),
     endsOn: date("ends_on", { mode: "string" }).notNull(),
     label: varchar("label", { length: 80 }),
+    billedKwh: decimal("billed_kwh", { precision: 12, scale: 3, mode: "number" }),
+    billedAmount: decimal("billed_amount", { precision: 12, scale: 2, mode: "number" }),
     createdAt: createdAt(),
+    updatedAt: updatedAt(),
   },
-  (t) => [index("bill_periods_site_idx").on(t.siteId, t.startsOn)],
+  (t) => [uniqueIndex("bill_periods_site_dates_uq").on(t.siteId, t.startsOn, t.endsOn)],
 );
