@@ -27,6 +27,7 @@ import { createOutbox } from "./outbox";
 import { createReadingsStore } from "./readings-store";
 import { createRegistry } from "./registry";
 import { untilDatabaseAnswers } from "./startup";
+import { createEnergyRollup } from "./energy-rollup";
 import { createSwitchLog } from "./switch-log";
 import { createSwitching } from "./switching";
 import { createTimers } from "./timers";
@@ -52,6 +53,10 @@ export type ControllerOptions = {
   /** How long to wait for plugs' retained reports before deciding without them. */
   startupGraceMs: number;
   flushMs: number;
+  /** How long written switches and meter samples gather before the energy roll-up takes them in. */
+  energyRollupMs: number;
+  /** A metering plug's counter is kept at most this often (and at every change of state). */
+  meterSampleMs: number;
   heartbeatMs: number;
   rawReadingRetentionMs: number;
   now: () => number;
@@ -68,6 +73,8 @@ const defaults: Omit<ControllerOptions, "databaseUrl" | "controllerSecret" | "we
   configReloadMs: 30_000,
   startupGraceMs: 1500,
   flushMs: 250,
+  energyRollupMs: 2000,
+  meterSampleMs: 60_000,
   heartbeatMs: 5000,
   rawReadingRetentionMs: 7 * 24 * 3600_000,
   now: Date.now,
@@ -109,7 +116,10 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
   /** Set once start-up is done; until then a reload leaves the edge timer alone. */
   let edgesArmed = false;
 
-  const switchLog = createSwitchLog({ db, logger, flushMs: options.flushMs, maxBatch: 1000 });
+  const energy = createEnergyRollup({ db, logger, delayMs: options.energyRollupMs });
+  const switchLog = createSwitchLog({ db, logger, flushMs: options.flushMs, maxBatch: 1000, onWritten: energy.changed });
+  // When each metering plug's counter was last kept, and in which state.
+  const lastSample = new Map<string, { atMs: number; on: boolean }>();
   const store = createReadingsStore({ db, logger, flushMs: Math.max(options.flushMs, 1000), maxBatch: 1000, maxWaiting: 200_000, rawRetentionMs: options.rawReadingRetentionMs, now });
   const alerts = createAlerts({ db, logger, now });
   const heartbeat = createHeartbeat({ db, instanceId: randomUUID(), sites: options.sites, everyMs: options.heartbeatMs, now, logger });
@@ -213,6 +223,13 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
           watts: report.watts === undefined || report.watts === null ? null : Math.round(report.watts),
           wattHours: report.wh === undefined || report.wh === null ? null : Math.round(report.wh),
         });
+        if (runtime.config.metersEnergy && typeof report.wh === "number" && report.wh >= 0) {
+          const last = lastSample.get(runtime.config.id);
+          if (!last || last.on !== report.on || nowMs - last.atMs >= options.meterSampleMs) {
+            lastSample.set(runtime.config.id, { atMs: nowMs, on: report.on });
+            switchLog.meter(runtime.config.id, new Date(nowMs), Math.round(report.wh));
+          }
+        }
         switching.report(runtime, { on: report.on, cmd: report.cmd ?? null, plugTimeMs }, nowMs);
       },
       presence(site, device, online, nowMs) {
@@ -275,6 +292,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
       ...switching.stats(),
       dropped: { ...inbox.dropped(), ...(staleReports ? { stale_report: staleReports } : {}) },
       switchesUnwritten: switchLog.waiting(),
+      energyRollupWaiting: energy.waiting(),
       readingsUnwritten: store.waiting(),
     }),
     plug(siteSlug, deviceId) {
@@ -288,6 +306,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
     flush: async () => {
       await switchLog.flush();
       await store.flush();
+      await energy.flush();
     },
     close: () =>
       (closing ??= (async () => {
@@ -296,6 +315,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
         outbox.close();
         await link.close();
         await switchLog.close();
+        await energy.close();
         await store.close();
         await heartbeat.stopped();
         await broker?.close();

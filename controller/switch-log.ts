@@ -8,8 +8,9 @@
 // wait here and go out in order when it is back.
 import type { Logger } from "pino";
 import type { Database } from "@/db/client";
-import { plugStates, switchEvents } from "@/db/schema";
+import { meterSamples, plugStates, switchEvents } from "@/db/schema";
 import { insertMany, updateMany, upsertMany } from "@/db/bulk";
+import type { EnergyChange } from "@/db/energy-days";
 
 export type SwitchRow = typeof switchEvents.$inferInsert & { commandId: string };
 
@@ -21,6 +22,8 @@ export type SwitchLogOptions = {
   logger: Logger;
   flushMs: number;
   maxBatch: number;
+  /** Told, after each write, where the written rows change the plugs' runtime and energy. */
+  onWritten?: (changes: EnergyChange[]) => void;
 };
 
 export type SwitchLog = {
@@ -30,6 +33,8 @@ export type SwitchLog = {
   withdraw: (commandId: string, at: Date) => void;
   /** Columns of the plug's present state as they are now; written with the log rows recorded before them. */
   present: (plugId: string, state: PresentState) => void;
+  /** A reading of the plug's energy counter, kept for metered kWh. */
+  meter: (plugId: string, at: Date, wattHours: number) => void;
   /** Writes what is waiting now (ignoring any back-off). */
   flush: () => Promise<void>;
   waiting: () => number;
@@ -44,8 +49,10 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
   // Rows that are in MariaDB already whose acknowledgement or withdrawal came later.
   type Later = { ackAt?: Date; latencyMs?: number; withdrawnAt?: Date };
   const acks = new Map<string, Later>();
-  const written = new Set<string>();
+  // Where each written row is, so a later withdrawal can say which runtime it changes.
+  const written = new Map<string, { plugId: string; atMs: number }>();
   const present = new Map<string, PresentState>();
+  let samples: (typeof meterSamples.$inferInsert)[] = [];
   let version = 0;
   let running: Promise<void> | undefined;
   let failures = 0;
@@ -61,18 +68,34 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
     const batch = [...queue.values()];
     const acked = [...acks];
     const states = [...present];
-    await db.transaction(async (tx) => {
-      for (let i = 0; i < batch.length; i += options.maxBatch) {
-        const rows = batch.slice(i, i + options.maxBatch).map((b) => b.row);
-        await insertMany(tx, switchEvents, rows, { fillIn: ["ackAt", "latencyMs", "withdrawnAt"] });
-      }
-      // Acknowledgements and withdrawals of rows already written: one UPDATE for all.
-      await updateMany(tx, switchEvents, "commandId", acked.map(([commandId, ack]) => ({ commandId, ...ack })));
-      const updatedAt = new Date();
-      await upsertMany(tx, plugStates, states.map(([plugId, state]) => ({ plugId, ...state, updatedAt })));
-    });
+    const meter = samples;
+    samples = [];
+    try {
+      await db.transaction(async (tx) => {
+        for (let i = 0; i < batch.length; i += options.maxBatch) {
+          const rows = batch.slice(i, i + options.maxBatch).map((b) => b.row);
+          await insertMany(tx, switchEvents, rows, { fillIn: ["ackAt", "latencyMs", "withdrawnAt"] });
+        }
+        // Acknowledgements and withdrawals of rows already written: one UPDATE for all.
+        await updateMany(tx, switchEvents, "commandId", acked.map(([commandId, ack]) => ({ commandId, ...ack })));
+        const updatedAt = new Date();
+        await upsertMany(tx, plugStates, states.map(([plugId, state]) => ({ plugId, ...state, updatedAt })));
+        for (let i = 0; i < meter.length; i += options.maxBatch) await insertMany(tx, meterSamples, meter.slice(i, i + options.maxBatch), { keep: true });
+      });
+    } catch (error) {
+      samples = [...meter, ...samples];
+      throw error;
+    }
+    const changes: EnergyChange[] = [];
+    for (const { row } of batch) changes.push({ plugId: row.plugId, fromMs: row.at.getTime(), toMs: row.at.getTime() });
+    for (const [commandId, later] of acked) {
+      const where = written.get(commandId);
+      if (where && later.withdrawnAt) changes.push({ plugId: where.plugId, fromMs: where.atMs, toMs: where.atMs });
+    }
+    for (const m of meter) changes.push({ plugId: m.plugId, fromMs: m.at.getTime(), toMs: m.at.getTime() });
+    if (changes.length) options.onWritten?.(changes);
     for (const { row, version: v } of batch) {
-      written.add(row.commandId);
+      written.set(row.commandId, { plugId: row.plugId, atMs: row.at.getTime() });
       if (queue.get(row.commandId)?.version === v) queue.delete(row.commandId);
     }
     for (const [commandId, ack] of acked) if (acks.get(commandId) === ack) acks.delete(commandId);
@@ -83,7 +106,7 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
 
   function flush(force = false): Promise<void> {
     if (running) return running;
-    if ((queue.size === 0 && acks.size === 0 && present.size === 0) || (!force && Date.now() < retryAt)) return Promise.resolve();
+    if ((queue.size === 0 && acks.size === 0 && present.size === 0 && samples.length === 0) || (!force && Date.now() < retryAt)) return Promise.resolve();
     running = write()
       .then(() => {
         if (failures > 0) logger.info({ failures }, "switch log is writing again");
@@ -123,11 +146,14 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
       // Columns set since the last write are kept: one row per plug and flush.
       present.set(plugId, { ...present.get(plugId), ...state });
     },
+    meter(plugId, at, wattHours) {
+      samples.push({ plugId, at, wattHours });
+    },
     async flush() {
       await running;
       await flush(true);
     },
-    waiting: () => queue.size + acks.size + present.size,
+    waiting: () => queue.size + acks.size + present.size + samples.length,
     async close() {
       if (closed) return;
       closed = true;

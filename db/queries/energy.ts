@@ -1,0 +1,107 @@
+import "server-only";
+import { asc, eq } from "drizzle-orm";
+import type mysql from "mysql2/promise";
+import { getDb, getPool } from "@/db/client";
+import { loadTariffs } from "@/db/energy-days";
+import { houses, plugs, sites } from "@/db/schema";
+import { buildSlices, dayOf } from "@/lib/energy/calendar";
+import { buildReport, bucketOf, type EnergyReport, type ReportBucket, type ReportCell } from "@/lib/energy/report";
+import { accumulate, onIntervals } from "@/lib/energy/runtime";
+
+export type EnergyReportInput = { siteId: string; fromDay: string; toDay: string; bucket: ReportBucket; now?: Date };
+
+const BUCKET_SQL: Record<ReportBucket, string> = {
+  day: "e.day",
+  week: "GREATEST(e.day - INTERVAL WEEKDAY(e.day) DAY, ?)",
+  month: "GREATEST(DATE_FORMAT(e.day, '%Y-%m-01'), ?)",
+};
+
+/**
+ * Runtime, kWh and cost of a site's plugs from `fromDay` to `toDay` (local dates,
+ * inclusive): the roll-up's closed intervals, summed by plug, bucket and rate in
+ * MariaDB, and the part of each plug still on now, from its last switch to `now`.
+ */
+export async function getEnergyReport({ siteId, fromDay, toDay, bucket, now = new Date() }: EnergyReportInput): Promise<EnergyReport & { zone: string; currency: string; siteName: string }> {
+  const db = getDb();
+  const pool = getPool();
+  const [[site], houseRows, plugRows, tariffs] = await Promise.all([
+    db.select({ name: sites.name, zone: sites.timeZone, currency: sites.currency }).from(sites).where(eq(sites.id, siteId)),
+    db.select({ id: houses.id, name: houses.name }).from(houses).where(eq(houses.siteId, siteId)).orderBy(asc(houses.name)),
+    db
+      .select({
+        id: plugs.id,
+        name: plugs.name,
+        houseId: plugs.houseId,
+        metersEnergy: plugs.metersEnergy,
+        applianceWatts: plugs.applianceWatts,
+        retiredAt: plugs.retiredAt,
+      })
+      .from(plugs)
+      .where(eq(plugs.siteId, siteId))
+      .orderBy(asc(plugs.name)),
+    loadTariffs(pool, siteId),
+  ]);
+  if (!site) throw new Error(`site ${siteId} not found`);
+  const reportPlugs = plugRows.map(({ retiredAt, ...p }) => ({ ...p, retired: retiredAt !== null }));
+  const plugIds = reportPlugs.map((p) => p.id);
+  const cells = plugIds.length ? await rolledUp(pool, plugIds, fromDay, toDay, bucket) : [];
+
+  const today = dayOf(now.getTime(), site.zone);
+  if (plugIds.length && fromDay <= today) {
+    for (const cell of await stillOn(pool, reportPlugs, { zone: site.zone, fromDay, toDay: toDay < today ? toDay : today, tariffs, nowMs: now.getTime() })) {
+      cells.push({ ...cell, day: bucketed(cell.day, bucket, fromDay) });
+    }
+  }
+  const report = buildReport({ fromDay, toDay, today, bucket, tariffs, houses: houseRows, plugs: reportPlugs, cells });
+  return { ...report, zone: site.zone, currency: site.currency, siteName: site.name };
+}
+
+function bucketed(day: string, bucket: ReportBucket, fromDay: string) {
+  const start = bucketOf(day, bucket);
+  return start < fromDay ? fromDay : start;
+}
+
+async function rolledUp(pool: mysql.Pool, plugIds: string[], fromDay: string, toDay: string, bucket: ReportBucket): Promise<ReportCell[]> {
+  const bucketSql = BUCKET_SQL[bucket];
+  const values = bucket === "day" ? [plugIds, fromDay, toDay] : [fromDay, plugIds, fromDay, toDay];
+  const [rows] = await pool.query(
+    `SELECT e.plug_id, DATE_FORMAT(${bucketSql}, '%Y-%m-%d') AS bucket, e.rate_key,
+            SUM(e.on_ms) AS on_ms, SUM(e.rated_watt_ms) AS rated_watt_ms, SUM(e.metered_ws) AS metered_ws
+       FROM energy_days e
+      WHERE e.plug_id IN (?) AND e.day BETWEEN ? AND ?
+      GROUP BY e.plug_id, bucket, e.rate_key`,
+    values,
+  );
+  return (rows as { plug_id: string; bucket: string; rate_key: string; on_ms: string; rated_watt_ms: string; metered_ws: number | null }[]).map((r) => ({
+    plugId: r.plug_id,
+    day: r.bucket,
+    rateKey: r.rate_key,
+    onMs: Number(r.on_ms),
+    ratedWattMs: Number(r.rated_watt_ms),
+    meteredWs: r.metered_ws === null ? null : Number(r.metered_ws),
+  }));
+}
+
+/** Each plug's last kept switch, when it left the plug on: the part of the range since then is not rolled up yet. */
+async function stillOn(
+  pool: mysql.Pool,
+  plugList: { id: string; applianceWatts: number }[],
+  { zone, fromDay, toDay, tariffs, nowMs }: { zone: string; fromDay: string; toDay: string; tariffs: Awaited<ReturnType<typeof loadTariffs>>; nowMs: number },
+): Promise<ReportCell[]> {
+  const union = plugList
+    .map(() => "(SELECT plug_id, at, to_on, rated_watts FROM switch_events WHERE plug_id = ? AND withdrawn_at IS NULL ORDER BY at DESC, id DESC LIMIT 1)")
+    .join(" UNION ALL ");
+  const [rows] = await pool.query(union, plugList.map((p) => p.id));
+  const on = (rows as { plug_id: string; at: Date; to_on: number; rated_watts: number | null }[]).filter((r) => r.to_on && r.at.getTime() < nowMs);
+  if (on.length === 0) return [];
+  const earliest = dayOf(Math.min(...on.map((r) => r.at.getTime())), zone);
+  const slices = buildSlices({ zone, fromDay: earliest > fromDay ? earliest : fromDay, toDay, tariffs });
+  const watts = new Map(plugList.map((p) => [p.id, p.applianceWatts]));
+  return on.flatMap((r) => {
+    const intervals = onIntervals([{ atMs: r.at.getTime(), toOn: true, ratedWatts: r.rated_watts, withdrawn: false }], {
+      fallbackWatts: watts.get(r.plug_id) ?? 0,
+      openUntilMs: nowMs,
+    });
+    return [...accumulate(slices, intervals, null).values()].map((c) => ({ plugId: r.plug_id, ...c }));
+  });
+}
