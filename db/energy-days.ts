@@ -10,7 +10,8 @@
 import type mysql from "mysql2/promise";
 import type { Database } from "@/db/client";
 import { buildSlices, dayOf, dayStartMs, nextDay, type Slice } from "@/lib/energy/calendar";
-import { accumulate, meterPieces, onIntervals, type EnergyCell, type LoggedSwitch, type MeterSample } from "@/lib/energy/runtime";
+import { rollupCells, type EnergyCell, type LoggedSwitch, type MeterSample } from "@/lib/energy/runtime";
+import { daysToRefresh } from "@/lib/energy/refresh";
 import { WEEKDAY_CODES, type Tariff, type WeekdayCode } from "@/lib/energy/tariff";
 
 type Pool = mysql.Pool;
@@ -113,13 +114,6 @@ export async function samplesAround(conn: Conn | Pool, plugId: string, fromMs: n
   return found.map((r) => ({ atMs: r.at.getTime(), wattHours: Number(r.watt_hours) })).sort((a, b) => a.atMs - b.atMs);
 }
 
-/** The plug's roll-up cells for the days covered by `slices`, from its log and meter. */
-export function cellsOf(plug: PlugInfo, slices: readonly Slice[], log: readonly LoggedSwitch[], samples: readonly MeterSample[] | null): EnergyCell[] {
-  const intervals = onIntervals(log, { fallbackWatts: plug.applianceWatts, openUntilMs: null });
-  const pieces = plug.metersEnergy ? meterPieces(samples ?? []) : null;
-  return [...accumulate(slices, intervals, pieces).values()].filter((c) => c.onMs > 0 || (c.meteredWs ?? 0) > 0);
-}
-
 const INSERT_CHUNK = 2000;
 
 async function writeCells(conn: Conn, plugId: string, fromDay: string, toDay: string, cells: readonly EnergyCell[]) {
@@ -160,7 +154,7 @@ async function rewriteDays(pool: Pool, plug: PlugInfo, tariffsOf: (conn: Conn) =
         switchesAround(conn, plug.id, startMs, endMs),
         plug.metersEnergy ? samplesAround(conn, plug.id, startMs, endMs) : Promise.resolve(null),
       ]);
-      const cells = cellsOf(plug, buildSlices({ zone: plug.zone, fromDay, toDay, tariffs }), log, samples);
+      const cells = rollupCells(plug, buildSlices({ zone: plug.zone, fromDay, toDay, tariffs }), log, samples);
       await writeCells(conn, plug.id, fromDay, toDay, cells);
       await conn.query("COMMIT");
       return cells.length;
@@ -204,10 +198,8 @@ export async function refreshEnergyDays(db: Database, changes: readonly EnergyCh
           plug.metersEnergy ? firstAt(conn, "SELECT at FROM meter_samples WHERE plug_id = ? AND at < ? ORDER BY at DESC LIMIT 1", [plug.id, from]) : null,
           plug.metersEnergy ? firstAt(conn, "SELECT at FROM meter_samples WHERE plug_id = ? AND at > ? ORDER BY at LIMIT 1", [plug.id, to]) : null,
         ]);
-        const [prevSwitch, nextSwitch, prevSample, nextSample] = edges;
-        const start = Math.min(fromMs, prevSwitch ?? fromMs, prevSample ?? fromMs);
-        const end = Math.max(toMs, nextSwitch ?? toMs, nextSample ?? toMs);
-        return [dayOf(start, plug.zone), dayOf(end, plug.zone)];
+        const [prevSwitchMs, nextSwitchMs, prevSampleMs, nextSampleMs] = edges;
+        return daysToRefresh(plug.zone, { fromMs, toMs }, { prevSwitchMs, nextSwitchMs, prevSampleMs, nextSampleMs });
       },
     );
   }
@@ -265,7 +257,7 @@ export async function rebuildEnergyDays(
           const sliceKey = `${plug.siteId}|${fromDay}|${toDay}`;
           let slices = sliceCache.get(sliceKey);
           if (!slices) sliceCache.set(sliceKey, (slices = buildSlices({ zone: plug.zone, fromDay, toDay, tariffs })));
-          const cells = cellsOf(plug, slices, log, samples);
+          const cells = rollupCells(plug, slices, log, samples);
           await writeCells(conn, plug.id, fromDay, toDay, cells);
           progress.cells += cells.length;
         }

@@ -105,6 +105,21 @@ export function accumulate(
   return cells;
 }
 
+/**
+ * A plug's roll-up cells for the days `slices` cover: the intervals its log has closed
+ * (never the one still open) and its meter's pieces. Cells with nothing in them are left out.
+ */
+export function rollupCells(
+  plug: { applianceWatts: number; metersEnergy: boolean },
+  slices: readonly Slice[],
+  log: readonly LoggedSwitch[],
+  samples: readonly MeterSample[] | null,
+): EnergyCell[] {
+  const intervals = onIntervals(log, { fallbackWatts: plug.applianceWatts, openUntilMs: null });
+  const pieces = plug.metersEnergy ? meterPieces(samples ?? []) : null;
+  return [...accumulate(slices, intervals, pieces).values()].filter((c) => c.onMs > 0 || (c.meteredWs ?? 0) > 0);
+}
+
 /** Watt-milliseconds to kWh; kWh = kW × h (1 kWh = 3.6e9 W·ms). */
 export const KWH_PER_WATT_MS = 1 / 3_600_000_000;
 export const KWH_PER_WS = 1 / 3_600_000;
