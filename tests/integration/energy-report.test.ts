@@ -138,7 +138,7 @@ describe("the energy report", () => {
     const done = await rebuildEnergyDays(db, { siteIds: [siteId] });
     expect(done.plugs).toBe(2);
     const rebuilt = await rowsNow();
-    expect(rebuilt.map(({ meteredWs, ...r }) => r)).toEqual(kept.map(({ meteredWs, ...r }) => r));
+    expect(rebuilt.map(({ meteredWs: _m, ...r }) => r)).toEqual(kept.map(({ meteredWs: _m, ...r }) => r));
     rebuilt.forEach((r, i) => expect(Math.abs((r.meteredWs ?? 0) - (kept[i]!.meteredWs ?? 0))).toBeLessThan(1e-6));
   });
 });
