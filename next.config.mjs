@@ -1,7 +1,8 @@
 /** @type {import("next").NextConfig} */
 const nextConfig = {
-  // mysql2 loads optional native bits at run time; bundling it breaks that.
-  serverExternalPackages: ["mysql2"],
+  // mysql2 loads optional native bits at run time, and pdfkit reads its font metrics
+  // from its own folder: bundling either breaks that.
+  serverExternalPackages: ["mysql2", "pdfkit"],
   poweredByHeader: false,
 };
 

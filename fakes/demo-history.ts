@@ -8,7 +8,8 @@ import { fileURLToPath } from "node:url";
 import { createHash } from "node:crypto";
 import { count, inArray } from "drizzle-orm";
 import { connect, type Database } from "../db/client";
-import { plugStates, readingMinutes, readings, switchEvents } from "../db/schema";
+import { meterSamples, plugStates, readingMinutes, readings, switchEvents } from "../db/schema";
+import { rebuildEnergyDays } from "../db/energy-days";
 import { insertMany } from "../db/bulk";
 import { loadConfig, rulesOf } from "../controller/config";
 import { compilePlugSchedule } from "../controller/plug-schedule";
@@ -21,7 +22,7 @@ const MINUTE = 60_000;
 const RAW_DAYS = 7;
 
 export type DemoHistoryOptions = { db: Database; site: string; days: number; endMs: number; seed?: number };
-export type DemoHistorySummary = { skipped: boolean; switches: number; minutes: number; raw: number };
+export type DemoHistorySummary = { skipped: boolean; switches: number; minutes: number; raw: number; samples: number };
 
 
 /** A stable command id for a historical switch, so a rerun cannot duplicate it. */
@@ -33,9 +34,9 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
   const { db } = options;
   const layout = await loadSiteLayout(db, options.site);
   const plugIds = layout.plugs.map((p) => p.id);
-  if (plugIds.length === 0) return { skipped: true, switches: 0, minutes: 0, raw: 0 };
+  if (plugIds.length === 0) return { skipped: true, switches: 0, minutes: 0, raw: 0, samples: 0 };
   const [existing] = await db.select({ n: count() }).from(switchEvents).where(inArray(switchEvents.plugId, plugIds));
-  if ((existing?.n ?? 0) > 0) return { skipped: true, switches: 0, minutes: 0, raw: 0 };
+  if ((existing?.n ?? 0) > 0) return { skipped: true, switches: 0, minutes: 0, raw: 0, samples: 0 };
 
   const config = await loadConfig(db, new Date(options.endMs), [options.site]);
   const site = config.sites[0]!;
@@ -54,6 +55,8 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
     sinceMs: startMs - 3600_000,
     switchId: null as string | null,
     cause: null as ReturnType<typeof decide>["cause"] | null,
+    /** A metering plug's counter, in watt-hours (a little under the rated watts, as real heaters draw). */
+    meterWh: 0,
   }));
   const sensorOfHouse = new Map(layout.sensors.map((s) => [s.houseId, s.id]));
   const model = createSiteModel({
@@ -69,7 +72,8 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
   const switches: (typeof switchEvents.$inferInsert)[] = [];
   const minutes: (typeof readingMinutes.$inferInsert)[] = [];
   const raw: (typeof readings.$inferInsert)[] = [];
-  const written = { switches: 0, minutes: 0, raw: 0 };
+  const samples: (typeof meterSamples.$inferInsert)[] = [];
+  const written = { switches: 0, minutes: 0, raw: 0, samples: 0 };
 
   async function flush(final = false) {
     const limit = final ? 1 : 2000;
@@ -89,6 +93,11 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
         await insertMany(tx, readings, batch);
         written.raw += batch.length;
       }
+      while (samples.length >= limit || (final && samples.length)) {
+        const batch = samples.splice(0, 1000);
+        await insertMany(tx, meterSamples, batch, { keep: true });
+        written.samples += batch.length;
+      }
     });
   }
 
@@ -107,6 +116,11 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
       if (t >= rawFromMs) raw.push({ sensorId, at, tempC, rh, battery: 0.9 });
     }
     for (const r of runtimes) {
+      if (r.plug.metersEnergy) {
+        if (r.on) r.meterWh += (r.plug.applianceWatts * 0.96) / 60;
+        // The plug reports every minute; the controller keeps a sample every 15 minutes.
+        if ((t - startMs) % (15 * MINUTE) === 0) samples.push({ plugId: r.plug.id, at: new Date(t), wattHours: Math.round(r.meterWh) });
+      }
       const tempC = r.plug.sensorId ? (tempBySensor.get(r.plug.sensorId) ?? null) : null;
       const decision = decide({
         rules: r.rules,
@@ -157,6 +171,7 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
     })),
     { fillIn: ["on", "since", "switchCommandId", "presentCause", "lastSeenAt", "updatedAt"] },
   );
+  await rebuildEnergyDays(db, { siteIds: [site.id] });
   return { skipped: false, ...written };
 }
 

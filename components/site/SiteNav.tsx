@@ -9,6 +9,8 @@ const SECTIONS: { path: string; label: string; action: Action }[] = [
   { path: "", label: "Houses", action: "site.view" },
   { path: "/schedules", label: "Schedules", action: "site.view" },
   { path: "/devices", label: "Devices", action: "site.view" },
+  { path: "/history", label: "History", action: "history.view" },
+  { path: "/reports", label: "Reports", action: "reports.view" },
   { path: "/members", label: "Members", action: "members.view" },
   { path: "/activity", label: "Activity", action: "audit.view" },
   { path: "/settings", label: "Settings", action: "site.view" },

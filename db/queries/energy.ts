@@ -1,9 +1,9 @@
 import "server-only";
-import { asc, eq } from "drizzle-orm";
+import { asc, desc, eq } from "drizzle-orm";
 import type mysql from "mysql2/promise";
 import { getDb, getPool } from "@/db/client";
 import { loadTariffs } from "@/db/energy-days";
-import { houses, plugs, sites } from "@/db/schema";
+import { billPeriods, houses, plugs, sites } from "@/db/schema";
 import { buildSlices, dayOf } from "@/lib/energy/calendar";
 import { buildReport, bucketOf, type EnergyReport, type ReportBucket, type ReportCell } from "@/lib/energy/report";
 import { accumulate, onIntervals } from "@/lib/energy/runtime";
@@ -104,4 +104,13 @@ async function stillOn(
     });
     return [...accumulate(slices, intervals, null).values()].map((c) => ({ plugId: r.plug_id, ...c }));
   });
+}
+
+/** The site's bill periods, latest first, as report ranges to pick from. */
+export async function getBillPeriodRanges({ siteId }: { siteId: string }) {
+  return getDb()
+    .select({ id: billPeriods.id, label: billPeriods.label, from: billPeriods.startsOn, to: billPeriods.endsOn })
+    .from(billPeriods)
+    .where(eq(billPeriods.siteId, siteId))
+    .orderBy(desc(billPeriods.startsOn));
 }

@@ -38,7 +38,15 @@ export type EnergyReport = {
   houses: (Figures & { id: string; name: string; plugs: (Figures & ReportPlug)[] })[];
   rates: { rateKey: string; tariff: string; label: string; pricePerKwh: number; costedKwh: number; cost: number }[];
   tariffs: { id: string; name: string; kind: Tariff["kind"]; fromDay: string; toDay: string; days: number; standingChargePerDay: number; taxPercent: number }[];
-  series: (Figures & { key: string; fromDay: string; toDay: string; byHouse: Record<string, Figures> })[];
+  series: (Figures & {
+    key: string;
+    fromDay: string;
+    toDay: string;
+    /** Standing charges (with tax) of the bucket's days that have begun. */
+    standingCharge: number;
+    byHouse: Record<string, Figures>;
+    byPlug: Record<string, Figures>;
+  })[];
 };
 
 type Rate = { tariff: Tariff; price: number; label: string };
@@ -84,10 +92,10 @@ export function buildReport(input: {
 
   const plugFigures = new Map<string, Figures>();
   const rateTotals = new Map<string, { costedKwh: number; cost: number }>();
-  const buckets = new Map<string, { total: Figures; byHouse: Record<string, Figures> }>();
+  const buckets = new Map<string, { total: Figures; standingCharge: number; byHouse: Record<string, Figures>; byPlug: Record<string, Figures> }>();
   for (const day of daysFromTo(fromDay, toDay)) {
     const key = bucketOf(day, bucket);
-    if (!buckets.has(key)) buckets.set(key, { total: empty(), byHouse: {} });
+    if (!buckets.has(key)) buckets.set(key, { total: empty(), standingCharge: 0, byHouse: {}, byPlug: {} });
   }
 
   for (const cell of input.cells) {
@@ -110,6 +118,7 @@ export function buildReport(input: {
     const b = buckets.get(bucketOf(cell.day, bucket))!;
     add(b.total, f);
     add((b.byHouse[plug.houseId] ??= empty()), f);
+    add((b.byPlug[plug.id] ??= empty()), f);
   }
 
   const houses = input.houses.map((house) => {
@@ -136,7 +145,9 @@ export function buildReport(input: {
       seen.toDay = day;
       seen.days++;
     } else tariffDays.set(tariff.id, { tariff, fromDay: day, toDay: day, days: 1 });
-    standingCharge += tariff.standingChargePerDay * (1 + tariff.taxPercent / 100);
+    const charge = tariff.standingChargePerDay * (1 + tariff.taxPercent / 100);
+    standingCharge += charge;
+    buckets.get(bucketOf(day, bucket))!.standingCharge += charge;
     standingTax += tariff.standingChargePerDay * (tariff.taxPercent / 100);
   }
 
@@ -175,7 +186,9 @@ export function buildReport(input: {
       fromDay: key < fromDay ? fromDay : key,
       toDay: bucketEnd(key, bucket) > toDay ? toDay : bucketEnd(key, bucket),
       ...b.total,
+      standingCharge: b.standingCharge,
       byHouse: b.byHouse,
+      byPlug: b.byPlug,
     })),
   };
 }

@@ -1,13 +1,6 @@
 import { z } from "zod";
-import { DateTime } from "luxon";
 import { decodeAuditCursor } from "@/lib/audit";
-import { recordId } from "./common";
-
-const localDate = (label: string) =>
-  z
-    .string({ error: `${label} must be a date` })
-    .regex(/^\d{4}-\d{2}-\d{2}$/, `${label} must be a date like 2026-03-14`)
-    .refine((s) => DateTime.fromISO(s).isValid, `${label} is not a real date`);
+import { localDate, recordId } from "./common";
 
 /** Page sizes of the activity list. */
 export const AUDIT_PAGE = { default: 25, max: 100 } as const;

@@ -59,3 +59,13 @@ export const seconds = (label: string, min: number, max: number) =>
     .int(`${label} must be a whole number of seconds`)
     .min(min, `${label} must be at least ${min} s`)
     .max(max, `${label} must be at most ${max} s`);
+
+/** A calendar date, YYYY-MM-DD (a local date of the site). */
+export const localDate = (label: string) =>
+  z
+    .string({ error: `${label} must be text` })
+    .regex(/^\d{4}-\d{2}-\d{2}$/, `${label} must be a date, YYYY-MM-DD`)
+    .refine((v) => {
+      const d = new Date(`${v}T00:00:00Z`);
+      return !Number.isNaN(d.getTime()) && d.toISOString().startsWith(v);
+    }, `${label} is not a date in the calendar`);

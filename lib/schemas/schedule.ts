@@ -19,7 +19,7 @@ import {
   recurrenceFromDays,
 } from "@/lib/schedules/week";
 import { cToF, fromUnit } from "@/lib/units";
-import { line, recordId } from "./common";
+import { line, localDate, recordId } from "./common";
 
 /**
  * The narrowest band the editor takes: 1 °C between the edges. Common practice for
@@ -40,19 +40,9 @@ export function bothUnits(c: number): string {
 }
 
 const TIME_RE = /^([01]\d|2[0-3]):[0-5]\d$/;
-const DATE_RE = /^\d{4}-\d{2}-\d{2}$/;
 
 const localTime = (label: string) =>
   z.string({ error: `${label} must be text` }).regex(TIME_RE, `${label} must be a time of day, HH:MM (00:00 to 23:59)`);
-
-export const localDate = (label: string) =>
-  z
-    .string({ error: `${label} must be text` })
-    .regex(DATE_RE, `${label} must be a date, YYYY-MM-DD`)
-    .refine((v) => {
-      const d = new Date(`${v}T00:00:00Z`);
-      return !Number.isNaN(d.getTime()) && d.toISOString().startsWith(v);
-    }, `${label} is not a date in the calendar`);
 
 const tenths = (v: number) => Math.abs(v * 10 - Math.round(v * 10)) < 1e-6;
 

@@ -81,8 +81,8 @@ describe("GET /api/sites/[siteId]/audit", () => {
   it("refuses bad filters with the field at fault", async () => {
     for (const [query, message] of [
       [{ from: "2026-01-12", to: "2026-01-10" }, "To must be on or after From"],
-      [{ from: "2026-02-30" }, "From is not a real date"],
-      [{ from: "yesterday" }, "From must be a date like 2026-03-14"],
+      [{ from: "2026-02-30" }, "From is not a date in the calendar"],
+      [{ from: "yesterday" }, "From must be a date, YYYY-MM-DD"],
       [{ cursor: "abc" }, "Cursor is not one this list gave out"],
       [{ limit: "500" }, "Limit must be at most 100"],
       [{ userId: "nobody" }, "must be a person id"],
