@@ -219,6 +219,16 @@ export async function refreshSiteEnergyDays(db: Database, { siteId, fromDay, toD
   }
 }
 
+/** True when the log has switches and the roll-up has no rows at all (a database from before it). */
+export async function energyRollupMissing(db: Database): Promise<boolean> {
+  const [found] = await rows<{ log: number; rolled: number }>(
+    poolOf(db),
+    "SELECT EXISTS (SELECT 1 FROM switch_events) AS log, EXISTS (SELECT 1 FROM energy_days) AS rolled",
+    [],
+  );
+  return Boolean(found?.log) && !found?.rolled;
+}
+
 export type RebuildProgress = { plugs: number; of: number; switches: number; cells: number };
 
 /**

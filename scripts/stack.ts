@@ -6,6 +6,7 @@ import { migrateDatabase } from "../db/migrate";
 import { connect } from "../db/client";
 import { DEMO_SITE, seedDemo } from "../db/seed";
 import { writeDemoHistory } from "../fakes/demo-history";
+import { energyRollupMissing, rebuildEnergyDays } from "../db/energy-days";
 import { buildIsCurrent, markBuilt, sourceHash } from "./build-stamp";
 import { DEVICE_SECRETS_FILE, issueDemoDeviceSecrets } from "./demo-devices";
 import { LocalDatabaseError } from "./local-server";
@@ -54,6 +55,12 @@ export async function prepareDatabase(databaseUrl: string, historyDays: number, 
     if (historyDays > 0) {
       const history = await writeDemoHistory({ db, site: DEMO_SITE.slug, days: historyDays, endMs: Date.now() });
       if (!history.skipped) say(`wrote ${historyDays} days of demo history (${history.switches} switches, ${history.minutes} minutes of readings)`);
+    }
+    // A database from before the energy roll-up existed has switches and no roll-up yet.
+    if (await energyRollupMissing(db)) {
+      say("building the energy roll-up from the switch log (once)…");
+      const done = await rebuildEnergyDays(db);
+      say(`energy roll-up built: ${done.plugs} plugs, ${done.switches} switches`);
     }
   } finally {
     await pool.end();

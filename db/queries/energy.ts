@@ -6,7 +6,7 @@ import { loadTariffs } from "@/db/energy-days";
 import { billPeriods, houses, plugs, sites } from "@/db/schema";
 import { buildSlices, dayOf } from "@/lib/energy/calendar";
 import { buildReport, bucketOf, type EnergyReport, type ReportBucket, type ReportCell } from "@/lib/energy/report";
-import { accumulate, onIntervals } from "@/lib/energy/runtime";
+import { accumulate, cellKey, onIntervals } from "@/lib/energy/runtime";
 
 export type EnergyReportInput = { siteId: string; fromDay: string; toDay: string; bucket: ReportBucket; now?: Date };
 
@@ -66,26 +66,33 @@ async function rolledUp(pool: mysql.Pool, plugIds: string[], fromDay: string, to
   const values = bucket === "day" ? [plugIds, fromDay, toDay] : [fromDay, plugIds, fromDay, toDay];
   const [rows] = await pool.query(
     `SELECT e.plug_id, DATE_FORMAT(${bucketSql}, '%Y-%m-%d') AS bucket, e.rate_key,
-            SUM(e.on_ms) AS on_ms, SUM(e.rated_watt_ms) AS rated_watt_ms, SUM(e.metered_ws) AS metered_ws
+            SUM(e.on_ms) AS on_ms, SUM(e.rated_watt_ms) AS rated_watt_ms, SUM(e.metered_ws) AS metered_ws,
+            SUM(COALESCE(e.metered_ws, e.rated_watt_ms / 1000)) AS costed_ws
        FROM energy_days e
       WHERE e.plug_id IN (?) AND e.day BETWEEN ? AND ?
       GROUP BY e.plug_id, bucket, e.rate_key`,
     values,
   );
-  return (rows as { plug_id: string; bucket: string; rate_key: string; on_ms: string; rated_watt_ms: string; metered_ws: number | null }[]).map((r) => ({
+  return (rows as { plug_id: string; bucket: string; rate_key: string; on_ms: string; rated_watt_ms: string; metered_ws: number | null; costed_ws: string }[]).map((r) => ({
     plugId: r.plug_id,
     day: r.bucket,
     rateKey: r.rate_key,
     onMs: Number(r.on_ms),
     ratedWattMs: Number(r.rated_watt_ms),
     meteredWs: r.metered_ws === null ? null : Number(r.metered_ws),
+    costedWs: Number(r.costed_ws),
   }));
 }
 
-/** Each plug's last kept switch, when it left the plug on: the part of the range since then is not rolled up yet. */
+/**
+ * Each plug's last kept switch, when it left the plug on: the part of the range since
+ * then is not rolled up yet. Its runtime and rated energy run to now; where the plug
+ * meters, the roll-up already holds its meter up to the last sample, so only the time
+ * after that is costed here, at rated power.
+ */
 async function stillOn(
   pool: mysql.Pool,
-  plugList: { id: string; applianceWatts: number }[],
+  plugList: { id: string; applianceWatts: number; metersEnergy: boolean }[],
   { zone, fromDay, toDay, tariffs, nowMs }: { zone: string; fromDay: string; toDay: string; tariffs: Awaited<ReturnType<typeof loadTariffs>>; nowMs: number },
 ): Promise<ReportCell[]> {
   const union = plugList
@@ -94,15 +101,25 @@ async function stillOn(
   const [rows] = await pool.query(union, plugList.map((p) => p.id));
   const on = (rows as { plug_id: string; at: Date; to_on: number; rated_watts: number | null }[]).filter((r) => r.to_on && r.at.getTime() < nowMs);
   if (on.length === 0) return [];
+  const plugById = new Map(plugList.map((p) => [p.id, p]));
+  const metering = on.filter((r) => plugById.get(r.plug_id)?.metersEnergy);
+  const lastSample = new Map<string, number>();
+  if (metering.length) {
+    const [samples] = await pool.query(
+      metering.map(() => "(SELECT plug_id, at FROM meter_samples WHERE plug_id = ? ORDER BY at DESC LIMIT 1)").join(" UNION ALL "),
+      metering.map((r) => r.plug_id),
+    );
+    for (const s of samples as { plug_id: string; at: Date }[]) lastSample.set(s.plug_id, s.at.getTime());
+  }
   const earliest = dayOf(Math.min(...on.map((r) => r.at.getTime())), zone);
   const slices = buildSlices({ zone, fromDay: earliest > fromDay ? earliest : fromDay, toDay, tariffs });
-  const watts = new Map(plugList.map((p) => [p.id, p.applianceWatts]));
   return on.flatMap((r) => {
-    const intervals = onIntervals([{ atMs: r.at.getTime(), toOn: true, ratedWatts: r.rated_watts, withdrawn: false }], {
-      fallbackWatts: watts.get(r.plug_id) ?? 0,
-      openUntilMs: nowMs,
-    });
-    return [...accumulate(slices, intervals, null).values()].map((c) => ({ plugId: r.plug_id, ...c }));
+    const atMs = r.at.getTime();
+    const open = (fromMs: number) =>
+      accumulate(slices, onIntervals([{ atMs: fromMs, toOn: true, ratedWatts: r.rated_watts, withdrawn: false }], { fallbackWatts: plugById.get(r.plug_id)?.applianceWatts ?? 0, openUntilMs: nowMs }), null);
+    const ran = open(atMs);
+    const costed = open(Math.max(atMs, lastSample.get(r.plug_id) ?? atMs));
+    return [...ran.values()].map((c) => ({ plugId: r.plug_id, ...c, costedWs: (costed.get(cellKey(c.day, c.rateKey))?.ratedWattMs ?? 0) / 1000 }));
   });
 }
 

@@ -1,6 +1,6 @@
 // A runtime, kWh and cost report from roll-up cells: per plug, house and site, in
 // buckets of a day, a week or a month, with the tariffs' standing charges and tax.
-// Costs use the plug's metered energy where it meters, its rated energy otherwise.
+// Costs use the plug's metered energy where its meter was heard, its rated energy elsewhere.
 import { DateTime } from "luxon";
 import { daysFromTo } from "./calendar";
 import { KWH_PER_WATT_MS, KWH_PER_WS } from "./runtime";
@@ -9,8 +9,11 @@ import { tariffOn, type Tariff } from "./tariff";
 export const REPORT_BUCKETS = ["day", "week", "month"] as const;
 export type ReportBucket = (typeof REPORT_BUCKETS)[number];
 
-/** Summed roll-up of one plug, local day and rate. */
-export type ReportCell = { plugId: string; day: string; rateKey: string; onMs: number; ratedWattMs: number; meteredWs: number | null };
+/**
+ * Summed roll-up of one plug, local day (or bucket) and rate. `costedWs` is the energy
+ * the cost is worked on: metered where the meter covers, rated elsewhere.
+ */
+export type ReportCell = { plugId: string; day: string; rateKey: string; onMs: number; ratedWattMs: number; meteredWs: number | null; costedWs: number };
 
 export type ReportPlug = { id: string; name: string; houseId: string; metersEnergy: boolean; applianceWatts: number; retired: boolean };
 export type ReportHouse = { id: string; name: string };
@@ -20,7 +23,7 @@ export type Figures = {
   ratedKwh: number;
   /** Null where no plug in the sum meters its energy. */
   meteredKwh: number | null;
-  /** The kWh the cost is worked on: metered where the plug meters, rated otherwise. */
+  /** The kWh the cost is worked on: metered where the plug's meter was heard, rated elsewhere. */
   costedKwh: number;
   /** Energy cost with tax; null when none of it falls under a tariff. */
   cost: number | null;
@@ -102,8 +105,8 @@ export function buildReport(input: {
     const plug = plugById.get(cell.plugId);
     if (!plug || cell.day < fromDay || cell.day > toDay) continue;
     const ratedKwh = cell.ratedWattMs * KWH_PER_WATT_MS;
-    const meteredKwh = plug.metersEnergy ? (cell.meteredWs ?? 0) * KWH_PER_WS : null;
-    const costedKwh = meteredKwh ?? ratedKwh;
+    const meteredKwh = plug.metersEnergy && cell.meteredWs !== null ? cell.meteredWs * KWH_PER_WS : null;
+    const costedKwh = cell.costedWs * KWH_PER_WS;
     const rate = rates.get(cell.rateKey);
     const cost = rate ? costedKwh * rate.price * (1 + rate.tariff.taxPercent / 100) : null;
     const f: Figures = { onHours: cell.onMs / 3_600_000, ratedKwh, meteredKwh, costedKwh, cost, unpricedKwh: rate ? 0 : costedKwh };

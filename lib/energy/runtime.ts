@@ -11,7 +11,11 @@ export type MeterSample = { atMs: number; wattHours: number };
 
 export type OnInterval = { startMs: number; endMs: number; watts: number };
 
-/** What one plug ran and used in one slice's day and rate. */
+/**
+ * What one plug ran and used in one slice's day and rate. `meteredWs` is null where no
+ * stretch of the plug's meter readings covers the slice (the plug does not meter, or its
+ * meter was not heard): there the rated energy stands in for it when costing.
+ */
 export type EnergyCell = { day: string; rateKey: string; onMs: number; ratedWattMs: number; meteredWs: number | null };
 
 /**
@@ -76,7 +80,7 @@ export function accumulate(
   const cellOf = (slice: Slice) => {
     const key = cellKey(slice.day, slice.rateKey);
     let cell = cells.get(key);
-    if (!cell) cells.set(key, (cell = { day: slice.day, rateKey: slice.rateKey, onMs: 0, ratedWattMs: 0, meteredWs: pieces ? 0 : null }));
+    if (!cell) cells.set(key, (cell = { day: slice.day, rateKey: slice.rateKey, onMs: 0, ratedWattMs: 0, meteredWs: null }));
     return cell;
   };
   for (const interval of intervals) {
@@ -92,7 +96,6 @@ export function accumulate(
   }
   for (const piece of pieces ?? []) {
     const span = piece.endMs - piece.startMs;
-    if (piece.ws === 0) continue;
     for (let i = firstSliceAfter(slices, piece.startMs); i < slices.length; i++) {
       const slice = slices[i]!;
       if (slice.startMs >= piece.endMs) break;

@@ -122,6 +122,16 @@ describe("the energy report", () => {
     expect(plugIn(r, heaterId).meteredKwh).toBeNull();
   });
 
+  it("costs a metering plug at its rated power where its meter was not heard", async () => {
+    await logSwitch(meteredId, "2026-04-03T10:00", true, 1000);
+    await logSwitch(meteredId, "2026-04-03T13:00", false, 1000);
+    const r = await report("2026-04-03", "2026-04-03");
+    const metered = plugIn(r, meteredId);
+    expect(metered.meteredKwh).toBeNull();
+    expect(metered.costedKwh).toBeCloseTo(3, 9);
+    expect(metered.cost).toBeCloseTo(3 * 0.25, 9);
+  });
+
   it("a 23-hour day: a heater on all of the spring-forward day runs 23.0 h (IANA rules for Europe/London, 29 March 2026)", async () => {
     await logSwitch(heaterId, "2026-03-28T20:00", true, 2000);
     await logSwitch(heaterId, "2026-03-30T04:00", false, 2000);
