@@ -1,9 +1,7 @@
 import type { EnergyReport } from "@/lib/energy/report";
 import { HOUSE_COLOURS, dayLabel } from "./format";
 
-const W = 720;
-const H = 240;
-const PAD = { left: 44, right: 8, top: 12, bottom: 28 };
+const PAD = { left: 40, right: 8, top: 12, bottom: 28 };
 
 /** A tick step that gives about four lines for `max`. */
 function step(max: number) {
@@ -12,8 +10,13 @@ function step(max: number) {
   return [1, 2, 5, 10].map((m) => m * p).find((s) => s >= raw) ?? p * 10;
 }
 
-/** Runtime per day, week or month, stacked by house; drawn on the server, no script. */
-export function RuntimeChart({ report }: { report: EnergyReport }) {
+/**
+ * Runtime per day, week or month, stacked by house; drawn on the server, no script.
+ * `width` is the drawing's own width: draw a narrow one for phones, so its text stays
+ * readable when it is scaled to the screen.
+ */
+export function RuntimeChart({ report, width: W, id }: { report: EnergyReport; width: number; id: string }) {
+  const H = Math.round(W / 3) + 20;
   const { series, houses, bucket } = report;
   const max = Math.max(0, ...series.map((b) => b.onHours));
   const tick = step(max || 1);
@@ -23,13 +26,13 @@ export function RuntimeChart({ report }: { report: EnergyReport }) {
   const slot = innerW / Math.max(1, series.length);
   const bar = Math.max(1, Math.min(40, slot * 0.72));
   const y = (v: number) => PAD.top + innerH - (v / top) * innerH;
-  const labelEvery = Math.ceil(series.length / 8);
+  const labelEvery = Math.ceil(series.length / Math.max(3, Math.floor(W / 90)));
   const colour = new Map(houses.map((h, i) => [h.id, HOUSE_COLOURS[i % HOUSE_COLOURS.length]!]));
 
   return (
     <figure className="flex flex-col gap-2">
-      <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-labelledby="runtime-chart-title" className="h-auto w-full">
-        <title id="runtime-chart-title">{`Runtime by ${bucket}, in hours, stacked by house; the table below has the figures.`}</title>
+      <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-labelledby={`${id}-title`} className="h-auto w-full">
+        <title id={`${id}-title`}>{`Runtime by ${bucket}, in hours, stacked by house; the table below has the figures.`}</title>
         {Array.from({ length: Math.round(top / tick) + 1 }, (_, i) => i * tick).map((v) => (
           <g key={v}>
             <line x1={PAD.left} x2={W - PAD.right} y1={y(v)} y2={y(v)} stroke="#d7dde3" strokeWidth={1} />

@@ -110,7 +110,12 @@ export default async function ReportsPage({ params, searchParams }: Props) {
         <h2 id="runtime-heading" className="text-lg font-semibold text-frost-900">
           Runtime by {query.by}
         </h2>
-        <RuntimeChart report={report} />
+        <div className="sm:hidden">
+          <RuntimeChart report={report} width={360} id="runtime-narrow" />
+        </div>
+        <div className="hidden sm:block">
+          <RuntimeChart report={report} width={720} id="runtime-wide" />
+        </div>
       </Card>
 
       <Card as="section" className="flex flex-col gap-3 p-4" aria-labelledby="cost-heading">
@@ -125,8 +130,32 @@ export default async function ReportsPage({ params, searchParams }: Props) {
           <h2 id={`house-${house.id}`} className="text-lg font-semibold text-frost-900">
             {house.name}
           </h2>
-          <div className="overflow-x-auto">
-            <table className="w-full min-w-[34rem] text-sm">
+          <ul className="flex flex-col divide-y divide-frost-100 sm:hidden">
+            {[...house.plugs, { ...house, id: `${house.id}-total`, name: "House total", retired: false, metersEnergy: house.meteredKwh !== null, applianceWatts: 0 }].map((p) => (
+              <li key={p.id} className="flex flex-col gap-1 py-2 text-sm">
+                <span className={p.id.endsWith("-total") ? "font-semibold text-frost-900" : "text-frost-900"}>
+                  {p.name}
+                  {p.retired && <span className="text-frost-600"> (retired)</span>}
+                </span>
+                <dl className="grid grid-cols-2 gap-x-3 gap-y-0.5 tabular-nums">
+                  <dt className="text-frost-600">Runtime</dt>
+                  <dd className="text-right">{f.hours(p.onHours)}</dd>
+                  <dt className="text-frost-600">Rated</dt>
+                  <dd className="text-right">{f.kwh(p.ratedKwh)}</dd>
+                  {p.metersEnergy && (
+                    <>
+                      <dt className="text-frost-600">Metered</dt>
+                      <dd className="text-right">{f.kwh(p.meteredKwh)}</dd>
+                    </>
+                  )}
+                  <dt className="text-frost-600">Cost</dt>
+                  <dd className="text-right font-medium">{f.money(p.cost)}</dd>
+                </dl>
+              </li>
+            ))}
+          </ul>
+          <div className="hidden sm:block">
+            <table className="w-full text-sm">
               <thead className="text-left text-frost-600">
                 <tr>
                   <th scope="col" className="py-2 pr-3 font-medium">
@@ -200,7 +229,7 @@ export default async function ReportsPage({ params, searchParams }: Props) {
               </tr>
             </thead>
             <tbody className="tabular-nums">
-              {report.series.map((b) => (
+              {report.series.filter((b) => b.fromDay <= today).map((b) => (
                 <tr key={b.key} className="border-t border-frost-100">
                   <th scope="row" className="py-1.5 pr-3 text-left font-normal">
                     {dayLabel(b.fromDay, { month: query.by === "month" })}
