@@ -1,8 +1,11 @@
 // Tariffs as the reports use them: which tariff is in force on a local date, and
 // which of its unit rates covers each stretch of that day's wall clock.
 
-export const WEEKDAY_CODES = ["MO", "TU", "WE", "TH", "FR", "SA", "SU"] as const;
-export type WeekdayCode = (typeof WEEKDAY_CODES)[number];
+import { WEEKDAYS, WEEKDAY_NAMES, type Weekday } from "@/lib/schedules/week";
+
+/** RFC 5545 day codes, Monday first, as the schedules use them. */
+export const WEEKDAY_CODES = WEEKDAYS;
+export type WeekdayCode = Weekday;
 
 export type TariffRate = {
   id: string;
@@ -88,10 +91,10 @@ export function tariffProblems(tariff: Pick<Tariff, "kind" | "rates">): string[]
     for (let i = 1; i < claims.length; i++) {
       const a = claims[i - 1]!;
       const b = claims[i]!;
-      if (b.fromMin < a.toMin) problems.push(`${a.label} and ${b.label} overlap on ${DAY_NAMES[code]} at ${clockOf(b.fromMin)}.`);
+      if (b.fromMin < a.toMin) problems.push(`${a.label} and ${b.label} overlap on ${WEEKDAY_NAMES[code]} at ${clockOf(b.fromMin)}.`);
     }
     const gaps = ratePiecesOfDay({ kind: "time_of_use", rates: tariff.rates } as Tariff, weekday).filter((p) => p.rateId === "");
-    for (const g of gaps) problems.push(`No rate covers ${DAY_NAMES[code]} ${clockOf(g.fromMin)}–${clockOf(g.toMin)}.`);
+    for (const g of gaps) problems.push(`No rate covers ${WEEKDAY_NAMES[code]} ${clockOf(g.fromMin)}–${clockOf(g.toMin)}.`);
   }
   return problems;
 }
@@ -111,16 +114,6 @@ function claimsOfDay(rates: readonly TariffRate[], weekday: number) {
   }
   return claims.sort((a, b) => a.fromMin - b.fromMin);
 }
-
-const DAY_NAMES: Record<WeekdayCode, string> = {
-  MO: "Monday",
-  TU: "Tuesday",
-  WE: "Wednesday",
-  TH: "Thursday",
-  FR: "Friday",
-  SA: "Saturday",
-  SU: "Sunday",
-};
 
 function clockOf(min: number) {
   const h = Math.floor(min / 60);
