@@ -81,93 +81,159 @@ export async function loadTariffs(conn: Conn | Pool, siteId: string): Promise<Ta
   }));
 }
 
-const SWITCH_COLUMNS = "id, at, to_on, rated_watts, withdrawn_at IS NOT NULL AS withdrawn";
-type SwitchRow = { id: number; at: Date; to_on: number; rated_watts: number | null; withdrawn: number };
+const SWITCH_COLUMNS = "plug_id, id, at, to_on, rated_watts, withdrawn_at IS NOT NULL AS withdrawn";
+type SwitchRow = { plug_id: string; id: number; at: Date; to_on: number; rated_watts: number | null; withdrawn: number };
 
 const toSwitch = (r: SwitchRow): LoggedSwitch => ({ atMs: r.at.getTime(), toOn: Boolean(r.to_on), ratedWatts: r.rated_watts, withdrawn: Boolean(r.withdrawn) });
 
-/** The plug's log from its last kept switch before `fromMs` to its first kept switch at or after `toMs`, in order. */
-export async function switchesAround(conn: Conn | Pool, plugId: string, fromMs: number, toMs: number): Promise<LoggedSwitch[]> {
-  const from = new Date(fromMs);
-  const to = new Date(toMs);
-  const found = await rows<SwitchRow>(
-    conn,
-    `(SELECT ${SWITCH_COLUMNS} FROM switch_events WHERE plug_id = ? AND at < ? AND withdrawn_at IS NULL ORDER BY at DESC, id DESC LIMIT 1)
-     UNION ALL (SELECT ${SWITCH_COLUMNS} FROM switch_events WHERE plug_id = ? AND at >= ? AND at < ?)
-     UNION ALL (SELECT ${SWITCH_COLUMNS} FROM switch_events WHERE plug_id = ? AND at >= ? AND withdrawn_at IS NULL ORDER BY at, id LIMIT 1)`,
-    [plugId, from, plugId, from, to, plugId, to],
-  );
-  return found.sort((a, b) => a.at.getTime() - b.at.getTime() || a.id - b.id).map(toSwitch);
+type Span = { plugId: string; fromMs: number; toMs: number };
+
+function byPlug<T extends { plug_id: string }>(found: T[]): Map<string, T[]> {
+  const grouped = new Map<string, T[]>();
+  for (const r of found) {
+    const list = grouped.get(r.plug_id);
+    if (list) list.push(r);
+    else grouped.set(r.plug_id, [r]);
+  }
+  return grouped;
 }
 
-/** The plug's meter samples from the last before `fromMs` to the first at or after `toMs`. */
-export async function samplesAround(conn: Conn | Pool, plugId: string, fromMs: number, toMs: number): Promise<MeterSample[]> {
-  const from = new Date(fromMs);
-  const to = new Date(toMs);
-  const found = await rows<{ at: Date; watt_hours: number }>(
-    conn,
-    `(SELECT at, watt_hours FROM meter_samples WHERE plug_id = ? AND at < ? ORDER BY at DESC LIMIT 1)
-     UNION ALL (SELECT at, watt_hours FROM meter_samples WHERE plug_id = ? AND at >= ? AND at < ?)
-     UNION ALL (SELECT at, watt_hours FROM meter_samples WHERE plug_id = ? AND at >= ? ORDER BY at LIMIT 1)`,
-    [plugId, from, plugId, from, to, plugId, to],
+/**
+ * Each plug's log from its last kept switch before `fromMs` to its first kept switch at
+ * or after `toMs`, in order: one statement for all the spans.
+ */
+export async function switchesAround(conn: Conn | Pool, spans: readonly Span[]): Promise<Map<string, LoggedSwitch[]>> {
+  if (spans.length === 0) return new Map();
+  const sql = spans
+    .map(
+      () => `(SELECT ${SWITCH_COLUMNS} FROM switch_events WHERE plug_id = ? AND at < ? AND withdrawn_at IS NULL ORDER BY at DESC, id DESC LIMIT 1)
+     UNION ALL (SELECT ${SWITCH_COLUMNS} FROM switch_events WHERE plug_id = ? AND at >= ? AND at < ?)
+     UNION ALL (SELECT ${SWITCH_COLUMNS} FROM switch_events WHERE plug_id = ? AND at >= ? AND withdrawn_at IS NULL ORDER BY at, id LIMIT 1)`,
+    )
+    .join(" UNION ALL ");
+  const values = spans.flatMap(({ plugId, fromMs, toMs }) => [plugId, new Date(fromMs), plugId, new Date(fromMs), new Date(toMs), plugId, new Date(toMs)]);
+  const grouped = byPlug(await rows<SwitchRow>(conn, sql, values));
+  return new Map(spans.map(({ plugId }) => [plugId, (grouped.get(plugId) ?? []).sort((a, b) => a.at.getTime() - b.at.getTime() || a.id - b.id).map(toSwitch)]));
+}
+
+/** Each plug's meter samples from the last before `fromMs` to the first at or after `toMs`. */
+export async function samplesAround(conn: Conn | Pool, spans: readonly Span[]): Promise<Map<string, MeterSample[]>> {
+  if (spans.length === 0) return new Map();
+  const sql = spans
+    .map(
+      () => `(SELECT plug_id, at, watt_hours FROM meter_samples WHERE plug_id = ? AND at < ? ORDER BY at DESC LIMIT 1)
+     UNION ALL (SELECT plug_id, at, watt_hours FROM meter_samples WHERE plug_id = ? AND at >= ? AND at < ?)
+     UNION ALL (SELECT plug_id, at, watt_hours FROM meter_samples WHERE plug_id = ? AND at >= ? ORDER BY at LIMIT 1)`,
+    )
+    .join(" UNION ALL ");
+  const values = spans.flatMap(({ plugId, fromMs, toMs }) => [plugId, new Date(fromMs), plugId, new Date(fromMs), new Date(toMs), plugId, new Date(toMs)]);
+  const grouped = byPlug(await rows<{ plug_id: string; at: Date; watt_hours: number }>(conn, sql, values));
+  return new Map(
+    spans.map(({ plugId }) => [plugId, (grouped.get(plugId) ?? []).map((r) => ({ atMs: r.at.getTime(), wattHours: Number(r.watt_hours) })).sort((a, b) => a.atMs - b.atMs)]),
   );
-  return found.map((r) => ({ atMs: r.at.getTime(), wattHours: Number(r.watt_hours) })).sort((a, b) => a.atMs - b.atMs);
+}
+
+/** Around each change: the plug's kept switches (and samples) just before and just after it. */
+async function edgesAround(conn: Conn, plugs: readonly PlugInfo[], spans: Map<string, { fromMs: number; toMs: number }>) {
+  const parts: string[] = [];
+  const values: unknown[] = [];
+  for (const plug of plugs) {
+    const { fromMs, toMs } = spans.get(plug.id)!;
+    const [from, to] = [new Date(fromMs), new Date(toMs)];
+    parts.push(
+      "(SELECT plug_id, 'prevSwitchMs' AS edge, at FROM switch_events WHERE plug_id = ? AND at < ? AND withdrawn_at IS NULL ORDER BY at DESC LIMIT 1)",
+      "(SELECT plug_id, 'nextSwitchMs' AS edge, at FROM switch_events WHERE plug_id = ? AND at > ? AND withdrawn_at IS NULL ORDER BY at LIMIT 1)",
+    );
+    values.push(plug.id, from, plug.id, to);
+    if (plug.metersEnergy) {
+      parts.push(
+        "(SELECT plug_id, 'prevSampleMs' AS edge, at FROM meter_samples WHERE plug_id = ? AND at < ? ORDER BY at DESC LIMIT 1)",
+        "(SELECT plug_id, 'nextSampleMs' AS edge, at FROM meter_samples WHERE plug_id = ? AND at > ? ORDER BY at LIMIT 1)",
+      );
+      values.push(plug.id, from, plug.id, to);
+    }
+  }
+  type Edge = "prevSwitchMs" | "nextSwitchMs" | "prevSampleMs" | "nextSampleMs";
+  const found = await rows<{ plug_id: string; edge: Edge; at: Date }>(conn, parts.join(" UNION ALL "), values);
+  const around = new Map(plugs.map((p) => [p.id, { prevSwitchMs: null, nextSwitchMs: null, prevSampleMs: null, nextSampleMs: null } as Record<Edge, number | null>]));
+  for (const r of found) around.get(r.plug_id)![r.edge] = r.at.getTime();
+  return around;
 }
 
 const INSERT_CHUNK = 2000;
 
-async function writeCells(conn: Conn, plugId: string, fromDay: string, toDay: string, cells: readonly EnergyCell[]) {
-  await conn.query("DELETE FROM energy_days WHERE plug_id = ? AND day BETWEEN ? AND ?", [plugId, fromDay, toDay]);
-  for (let i = 0; i < cells.length; i += INSERT_CHUNK) {
-    const chunk = cells.slice(i, i + INSERT_CHUNK).map((c) => [plugId, c.day, c.rateKey, c.onMs, c.ratedWattMs, c.meteredWs]);
-    await conn.query("INSERT INTO energy_days (plug_id, day, rate_key, on_ms, rated_watt_ms, metered_ws) VALUES ?", [chunk]);
+async function writeCells(conn: Conn, written: { plugId: string; fromDay: string; toDay: string; cells: readonly EnergyCell[] }[]) {
+  if (written.length === 0) return;
+  await conn.query(
+    `DELETE FROM energy_days WHERE ${written.map(() => "(plug_id = ? AND day BETWEEN ? AND ?)").join(" OR ")}`,
+    written.flatMap((w) => [w.plugId, w.fromDay, w.toDay]),
+  );
+  const all = written.flatMap((w) => w.cells.map((c) => [w.plugId, c.day, c.rateKey, c.onMs, c.ratedWattMs, c.meteredWs]));
+  for (let i = 0; i < all.length; i += INSERT_CHUNK) {
+    await conn.query("INSERT INTO energy_days (plug_id, day, rate_key, on_ms, rated_watt_ms, metered_ws) VALUES ?", [all.slice(i, i + INSERT_CHUNK)]);
   }
 }
 
-/** Runs `work` holding the plug's roll-up lock on one connection of its own. */
-async function withPlugLock<T>(pool: Pool, plugId: string, work: (conn: Conn) => Promise<T>): Promise<T> {
+/**
+ * Runs `work` in a transaction on a connection of its own, holding the roll-up locks of
+ * these plugs (taken in one order, so two batches cannot wait on each other forever).
+ */
+async function withPlugLocks<T>(pool: Pool, plugIds: readonly string[], work: (conn: Conn) => Promise<T>): Promise<T> {
   const conn = await pool.getConnection();
-  const name = `cloche-energy-${plugId}`;
+  const names = [...plugIds].sort().map((id) => `cloche-energy-${id}`);
   try {
-    const [[got]] = (await conn.query("SELECT GET_LOCK(?, 60) AS got", [name])) as unknown as [{ got: number | null }[]];
-    if (got?.got !== 1) throw new Error(`the energy roll-up of plug ${plugId} is busy (lock not granted in 60 s)`);
+    const [[got]] = (await conn.query(`SELECT ${names.map(() => "GET_LOCK(?, 60)").join(" + ")} AS got`, names)) as unknown as [{ got: number | null }[]];
     try {
-      return await work(conn);
+      if (Number(got?.got) !== names.length) throw new Error(`the energy roll-up of ${names.length} plugs is busy (locks not granted in 60 s)`);
+      await conn.query("START TRANSACTION");
+      try {
+        const result = await work(conn);
+        await conn.query("COMMIT");
+        return result;
+      } catch (error) {
+        await conn.query("ROLLBACK").catch(() => undefined);
+        throw error;
+      }
     } finally {
-      await conn.query("SELECT RELEASE_LOCK(?)", [name]);
+      await conn.query("SELECT RELEASE_ALL_LOCKS()");
     }
   } finally {
     conn.release();
   }
 }
 
-/** Makes the plug's days from `fromDay` to `toDay` again from its log; returns the cells written. */
-async function rewriteDays(pool: Pool, plug: PlugInfo, tariffsOf: (conn: Conn) => Promise<Tariff[]>, range: (conn: Conn) => Promise<[string, string]>) {
-  return withPlugLock(pool, plug.id, async (conn) => {
-    await conn.query("START TRANSACTION");
-    try {
-      const [fromDay, toDay] = await range(conn);
-      const startMs = dayStartMs(fromDay, plug.zone);
-      const endMs = dayStartMs(nextDay(toDay), plug.zone);
-      const [tariffs, log, samples] = await Promise.all([
-        tariffsOf(conn),
-        switchesAround(conn, plug.id, startMs, endMs),
-        plug.metersEnergy ? samplesAround(conn, plug.id, startMs, endMs) : Promise.resolve(null),
-      ]);
-      const cells = rollupCells(plug, buildSlices({ zone: plug.zone, fromDay, toDay, tariffs }), log, samples);
-      await writeCells(conn, plug.id, fromDay, toDay, cells);
-      await conn.query("COMMIT");
-      return cells.length;
-    } catch (error) {
-      await conn.query("ROLLBACK").catch(() => undefined);
-      throw error;
-    }
-  });
-}
+/** Plugs per statement batch: each batch is a handful of statements whatever its size. */
+const BATCH = 50;
 
-async function firstAt(conn: Conn, sql: string, values: unknown[]): Promise<number | null> {
-  const [found] = await rows<{ at: Date }>(conn, sql, values);
-  return found ? found.at.getTime() : null;
+/**
+ * Makes these plugs' days again from their logs, a batch of plugs of one site at a
+ * time; `daysOf` says which days of each plug, asked once the locks are held.
+ */
+async function rewriteDays(pool: Pool, plugs: readonly PlugInfo[], daysOf: (conn: Conn, batch: readonly PlugInfo[]) => Promise<Map<string, [string, string]>>) {
+  let cells = 0;
+  const bySite = new Map<string, PlugInfo[]>();
+  for (const p of plugs) bySite.set(p.siteId, [...(bySite.get(p.siteId) ?? []), p]);
+  for (const [siteId, sitePlugs] of bySite) {
+    for (let i = 0; i < sitePlugs.length; i += BATCH) {
+      const batch = sitePlugs.slice(i, i + BATCH);
+      cells += await withPlugLocks(pool, batch.map((p) => p.id), async (conn) => {
+        const [tariffs, days] = await Promise.all([loadTariffs(conn, siteId), daysOf(conn, batch)]);
+        const spans = batch.map((p) => {
+          const [fromDay, toDay] = days.get(p.id)!;
+          return { plugId: p.id, fromMs: dayStartMs(fromDay, p.zone), toMs: dayStartMs(nextDay(toDay), p.zone) };
+        });
+        const [logs, samples] = await Promise.all([switchesAround(conn, spans), samplesAround(conn, spans.filter((s, k) => batch[k]!.metersEnergy))]);
+        const written = batch.map((plug) => {
+          const [fromDay, toDay] = days.get(plug.id)!;
+          const slices = buildSlices({ zone: plug.zone, fromDay, toDay, tariffs });
+          return { plugId: plug.id, fromDay, toDay, cells: rollupCells(plug, slices, logs.get(plug.id) ?? [], samples.get(plug.id) ?? null) };
+        });
+        await writeCells(conn, written);
+        return written.reduce((n, w) => n + w.cells.length, 0);
+      });
+    }
+  }
+  return cells;
 }
 
 /**
@@ -177,46 +243,23 @@ async function firstAt(conn: Conn, sql: string, values: unknown[]): Promise<numb
  * one written out of order, is counted where it belongs.
  */
 export async function refreshEnergyDays(db: Database, changes: readonly EnergyChange[]): Promise<void> {
-  const byPlug = new Map<string, { fromMs: number; toMs: number }>();
+  const spans = new Map<string, { fromMs: number; toMs: number }>();
   for (const c of changes) {
-    const seen = byPlug.get(c.plugId);
-    byPlug.set(c.plugId, seen ? { fromMs: Math.min(seen.fromMs, c.fromMs), toMs: Math.max(seen.toMs, c.toMs) } : { fromMs: c.fromMs, toMs: c.toMs });
+    const seen = spans.get(c.plugId);
+    spans.set(c.plugId, seen ? { fromMs: Math.min(seen.fromMs, c.fromMs), toMs: Math.max(seen.toMs, c.toMs) } : { fromMs: c.fromMs, toMs: c.toMs });
   }
   const pool = poolOf(db);
-  for (const plug of await plugsByIds(pool, [...byPlug.keys()])) {
-    const { fromMs, toMs } = byPlug.get(plug.id)!;
-    await rewriteDays(
-      pool,
-      plug,
-      (conn) => loadTariffs(conn, plug.siteId),
-      async (conn) => {
-        const from = new Date(fromMs);
-        const to = new Date(toMs);
-        const edges = await Promise.all([
-          firstAt(conn, "SELECT at FROM switch_events WHERE plug_id = ? AND at < ? AND withdrawn_at IS NULL ORDER BY at DESC LIMIT 1", [plug.id, from]),
-          firstAt(conn, "SELECT at FROM switch_events WHERE plug_id = ? AND at > ? AND withdrawn_at IS NULL ORDER BY at LIMIT 1", [plug.id, to]),
-          plug.metersEnergy ? firstAt(conn, "SELECT at FROM meter_samples WHERE plug_id = ? AND at < ? ORDER BY at DESC LIMIT 1", [plug.id, from]) : null,
-          plug.metersEnergy ? firstAt(conn, "SELECT at FROM meter_samples WHERE plug_id = ? AND at > ? ORDER BY at LIMIT 1", [plug.id, to]) : null,
-        ]);
-        const [prevSwitchMs, nextSwitchMs, prevSampleMs, nextSampleMs] = edges;
-        return daysToRefresh(plug.zone, { fromMs, toMs }, { prevSwitchMs, nextSwitchMs, prevSampleMs, nextSampleMs });
-      },
-    );
-  }
+  await rewriteDays(pool, await plugsByIds(pool, [...spans.keys()]), async (conn, batch) => {
+    const around = await edgesAround(conn, batch, spans);
+    return new Map(batch.map((p) => [p.id, daysToRefresh(p.zone, spans.get(p.id)!, around.get(p.id)!)]));
+  });
 }
 
 /** Makes the roll-up of a site's plugs again for these local days (after its tariffs changed). */
 export async function refreshSiteEnergyDays(db: Database, { siteId, fromDay, toDay }: { siteId: string; fromDay: string; toDay: string }): Promise<void> {
   const pool = poolOf(db);
   const ids = await rows<{ id: string }>(pool, "SELECT id FROM plugs WHERE site_id = ?", [siteId]);
-  for (const plug of await plugsByIds(pool, ids.map((p) => p.id))) {
-    await rewriteDays(
-      pool,
-      plug,
-      (conn) => loadTariffs(conn, siteId),
-      async () => [fromDay, toDay],
-    );
-  }
+  await rewriteDays(pool, await plugsByIds(pool, ids.map((p) => p.id)), async (_conn, batch) => new Map(batch.map((p) => [p.id, [fromDay, toDay] as [string, string]])));
 }
 
 /** True when the log has switches and the roll-up has no rows at all (a database from before it). */
@@ -243,40 +286,31 @@ export async function rebuildEnergyDays(
   const ids = await rows<{ id: string }>(pool, siteIds?.length ? "SELECT id FROM plugs WHERE site_id IN (?)" : "SELECT id FROM plugs", siteIds?.length ? [siteIds] : []);
   const plugList = await plugsByIds(pool, ids.map((p) => p.id));
   const progress: RebuildProgress = { plugs: 0, of: plugList.length, switches: 0, cells: 0 };
-  const tariffCache = new Map<string, Promise<Tariff[]>>();
   const sliceCache = new Map<string, Slice[]>();
   for (const plug of plugList) {
-    await withPlugLock(pool, plug.id, async (conn) => {
-      await conn.query("START TRANSACTION");
-      try {
-        if (!tariffCache.has(plug.siteId)) tariffCache.set(plug.siteId, loadTariffs(conn, plug.siteId));
-        const tariffs = await tariffCache.get(plug.siteId)!;
-        const log = (await rows<SwitchRow>(conn, `SELECT ${SWITCH_COLUMNS} FROM switch_events WHERE plug_id = ? ORDER BY at, id`, [plug.id])).map(toSwitch);
-        const samples = plug.metersEnergy
-          ? (await rows<{ at: Date; watt_hours: number }>(conn, "SELECT at, watt_hours FROM meter_samples WHERE plug_id = ? ORDER BY at", [plug.id])).map((r) => ({
-              atMs: r.at.getTime(),
-              wattHours: Number(r.watt_hours),
-            }))
-          : null;
-        await conn.query("DELETE FROM energy_days WHERE plug_id = ?", [plug.id]);
-        const ends = [log[0]?.atMs, log.at(-1)?.atMs, samples?.[0]?.atMs, samples?.at(-1)?.atMs].filter((t): t is number => t !== undefined);
-        if (ends.length) {
-          const fromDay = dayOf(Math.min(...ends), plug.zone);
-          const toDay = dayOf(Math.max(...ends), plug.zone);
-          // Plugs of a site mostly share their first and last days: slices are made once.
-          const sliceKey = `${plug.siteId}|${fromDay}|${toDay}`;
-          let slices = sliceCache.get(sliceKey);
-          if (!slices) sliceCache.set(sliceKey, (slices = buildSlices({ zone: plug.zone, fromDay, toDay, tariffs })));
-          const cells = rollupCells(plug, slices, log, samples);
-          await writeCells(conn, plug.id, fromDay, toDay, cells);
-          progress.cells += cells.length;
-        }
-        progress.switches += log.length;
-        await conn.query("COMMIT");
-      } catch (error) {
-        await conn.query("ROLLBACK").catch(() => undefined);
-        throw error;
+    await withPlugLocks(pool, [plug.id], async (conn) => {
+      const tariffs = await loadTariffs(conn, plug.siteId);
+      const log = (await rows<SwitchRow>(conn, `SELECT ${SWITCH_COLUMNS} FROM switch_events WHERE plug_id = ? ORDER BY at, id`, [plug.id])).map(toSwitch);
+      const samples = plug.metersEnergy
+        ? (await rows<{ at: Date; watt_hours: number }>(conn, "SELECT at, watt_hours FROM meter_samples WHERE plug_id = ? ORDER BY at", [plug.id])).map((r) => ({
+            atMs: r.at.getTime(),
+            wattHours: Number(r.watt_hours),
+          }))
+        : null;
+      await conn.query("DELETE FROM energy_days WHERE plug_id = ?", [plug.id]);
+      const ends = [log[0]?.atMs, log.at(-1)?.atMs, samples?.[0]?.atMs, samples?.at(-1)?.atMs].filter((t): t is number => t !== undefined);
+      if (ends.length) {
+        const fromDay = dayOf(Math.min(...ends), plug.zone);
+        const toDay = dayOf(Math.max(...ends), plug.zone);
+        // Plugs of a site mostly share their first and last days and tariffs: slices are made once.
+        const sliceKey = JSON.stringify([plug.zone, fromDay, toDay, tariffs]);
+        let slices = sliceCache.get(sliceKey);
+        if (!slices) sliceCache.set(sliceKey, (slices = buildSlices({ zone: plug.zone, fromDay, toDay, tariffs })));
+        const cells = rollupCells(plug, slices, log, samples);
+        await writeCells(conn, [{ plugId: plug.id, fromDay, toDay, cells }]);
+        progress.cells += cells.length;
       }
+      progress.switches += log.length;
     });
     progress.plugs++;
     onProgress?.(progress);

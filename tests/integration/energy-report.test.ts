@@ -150,5 +150,10 @@ describe("the energy report", () => {
     const rebuilt = await rowsNow();
     expect(rebuilt.map(({ meteredWs: _m, ...r }) => r)).toEqual(kept.map(({ meteredWs: _m, ...r }) => r));
     rebuilt.forEach((r, i) => expect(Math.abs((r.meteredWs ?? 0) - (kept[i]!.meteredWs ?? 0))).toBeLessThan(1e-6));
+
+    // Refreshes running at once, over both plugs and the whole year, count nothing twice.
+    const everything = [heaterId, meteredId].map((plugId) => ({ plugId, fromMs: local("2026-01-01T00:00").getTime(), toMs: local("2026-12-31T00:00").getTime() }));
+    await Promise.all([refreshEnergyDays(db, everything), refreshEnergyDays(db, everything), refreshEnergyDays(db, everything.slice(1))]);
+    expect((await rowsNow()).map(({ meteredWs: _m, ...r }) => r)).toEqual(kept.map(({ meteredWs: _m, ...r }) => r));
   });
 });
