@@ -55,7 +55,8 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
     switchId: null as string | null,
     cause: null as ReturnType<typeof decide>["cause"] | null,
   }));
-  const sensorOfHouse = new Map(layout.sensors.map((s) => [s.houseId, s.id]));
+  const sensorOfHouse = new Map(layout.sensors.filter((s) => s.placement === "inside").map((s) => [s.houseId, s.id]));
+  const outsideSensors = layout.sensors.filter((s) => s.placement === "outside");
   const model = createSiteModel({
     timeZone: site.timeZone,
     startMs,
@@ -105,6 +106,14 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
       const at = new Date(t);
       minutes.push({ sensorId, minute: at, samples: 1, tempMinC: tempC, tempMaxC: tempC, tempMeanC: tempC, rhMean: rh });
       if (t >= rawFromMs) raw.push({ sensorId, at, tempC, rh, battery: 0.9 });
+    }
+    for (const sensor of outsideSensors) {
+      const { weather } = model.snapshot(sensor.houseId);
+      const tempC = Math.round(weather.outsideC * 100) / 100;
+      const rh = Math.round(weather.outsideRh * 100) / 100;
+      const at = new Date(t);
+      minutes.push({ sensorId: sensor.id, minute: at, samples: 1, tempMinC: tempC, tempMaxC: tempC, tempMeanC: tempC, rhMean: rh });
+      if (t >= rawFromMs) raw.push({ sensorId: sensor.id, at, tempC, rh, battery: 0.9 });
     }
     for (const r of runtimes) {
       const tempC = r.plug.sensorId ? (tempBySensor.get(r.plug.sensorId) ?? null) : null;
