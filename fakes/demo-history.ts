@@ -10,6 +10,7 @@ import { count, inArray } from "drizzle-orm";
 import { connect, type Database } from "../db/client";
 import { plugStates, readingMinutes, readings, switchEvents } from "../db/schema";
 import { insertMany } from "../db/bulk";
+import { rebuildEnergyDays } from "../db/energy-days";
 import { loadConfig, rulesOf } from "../controller/config";
 import { compilePlugSchedule } from "../controller/plug-schedule";
 import { decide } from "../lib/control";
@@ -149,6 +150,9 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
     if (minutes.length >= 6000) await flush();
   }
   await flush(true);
+  // The energy roll-up is kept by the controller as it logs switches; the past written
+  // here is rolled up once, so the reports have its kWh.
+  await rebuildEnergyDays(db, { siteIds: [layout.site.id] });
   // Each plug's present state where the history leaves it, as the controller would
   // have stored it: a controller starting now carries on from there.
   const updatedAt = new Date(endMs);

@@ -52,7 +52,7 @@ export function HouseDegreeDays({ house, unit: ddUnit }: { house: DegreeDayHouse
       {house.heaters > 0 ? (
         <div className="overflow-x-auto">
           <table className="w-full min-w-[20rem] border-collapse text-sm">
-            <caption className="mb-1 text-left text-xs font-semibold uppercase tracking-wide text-frost-600">Each week (from Monday)</caption>
+            <caption className="mb-1 text-left text-xs font-semibold uppercase tracking-wide text-frost-600">Each week with readings (from Monday)</caption>
             <thead className="border-b border-frost-200">
               <tr>
                 <th scope="col" className="px-2 py-2 text-left font-medium text-frost-600">Week of</th>
@@ -63,7 +63,7 @@ export function HouseDegreeDays({ house, unit: ddUnit }: { house: DegreeDayHouse
               </tr>
             </thead>
             <tbody className="divide-y divide-frost-100">
-              {house.weeks.map((w) => (
+              {house.weeks.filter((w) => w.days > 0).map((w) => (
                 <tr key={w.key}>
                   <th scope="row" className="px-2 py-2 text-left font-normal text-frost-900">{dayMonth.format(asDate(w.key))}</th>
                   <td className={cell}>{w.days}</td>

@@ -2,7 +2,7 @@
 // MariaDB, across the day the clocks go back in London: per-minute rows written here
 // as the controller's roll-up would write them, and the figures worked out by hand.
 import { randomUUID } from "node:crypto";
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { insertMany } from "@/db/bulk";
 import { getDb } from "@/db/client";
@@ -162,6 +162,17 @@ describe("getDegreeDayReport", () => {
     expect(bare.houses[0]!.days.every((d) => d.degreeDays === null && d.outside === null)).toBe(true);
     expect(bare.houses[0]!.heaters).toBe(0);
     expect(bare.houses[0]!.days.every((d) => d.heatingKwh === null)).toBe(true);
+  });
+
+  it("takes a metering heater's meter, and its rating on a day its meter gave nothing", async () => {
+    await db.update(plugs).set({ metersEnergy: true }).where(eq(plugs.id, heaterId));
+    await db.update(energyDays).set({ meteredWs: 5 * 3_600_000 }).where(and(eq(energyDays.plugId, heaterId), eq(energyDays.day, "2030-10-27")));
+    try {
+      const metered = await getDegreeDayReport({ siteId, fromDay: "2030-10-27", toDay: "2030-10-28" });
+      expect(metered.houses[0]!.days.map((d) => d.heatingKwh)).toEqual([5, 2]); // 5 kWh metered; the 28th's 2 kWh from 2 kW × 1 h
+    } finally {
+      await db.update(plugs).set({ metersEnergy: false }).where(eq(plugs.id, heaterId));
+    }
   });
 
   it("refuses a range that runs backwards", async () => {
