@@ -47,7 +47,8 @@ export function periodFigures(days: readonly DayUse[], bucket: TrendBucket, meth
     .map((p) => ({
       ...p,
       kwhPerDegreeDay:
-        p.days >= rules.minDays && p.degreeDays > 0 && p.degreeDays >= rules.minDegreeDaysPerDay[method] * p.days ? p.kwh / p.degreeDays : null,
+        // A week without any heating (the band was never reached) says nothing about the cover.
+        p.days >= rules.minDays && p.kwh > 0 && p.degreeDays > 0 && p.degreeDays >= rules.minDegreeDaysPerDay[method] * p.days ? p.kwh / p.degreeDays : null,
     }));
 }
 

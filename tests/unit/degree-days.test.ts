@@ -109,9 +109,10 @@ describe("kWh per degree-day over weeks", () => {
     expect(weeks[0]).toEqual({ key: "2025-11-03", days: 7, kwh: 84, degreeDays: 35, kwhPerDegreeDay: 84 / 35 });
     expect(weeks[1]).toEqual({ key: "2025-11-10", days: 0, kwh: 0, degreeDays: 0, kwhPerDegreeDay: null });
   });
-  it("leaves out a week too mild to judge", () => {
+  it("leaves out a week too mild to judge, and one with no heating at all", () => {
     const weeks = periodFigures(weekDays("2025-05-05", 1, 0.5), "week", "uk_met_office");
     expect(weeks[0]!.kwhPerDegreeDay).toBeNull();
+    expect(periodFigures(weekDays("2025-10-06", 0, 4), "week", "uk_met_office")[0]!.kwhPerDegreeDay).toBeNull();
   });
 });
 
