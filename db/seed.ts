@@ -102,6 +102,8 @@ const demoSensors = [
   { id: demoId("sensor:glass"), siteId: site, houseId: glass.id, deviceId: "glass-air", name: "Glasshouse air" },
   { id: demoId("sensor:tunnel"), siteId: site, houseId: tunnel.id, deviceId: "tunnel-air", name: "Tunnel air" },
   { id: demoId("sensor:seedling"), siteId: site, houseId: seedling.id, deviceId: "seedling-air", name: "Seedling bench" },
+  // Mounted on the glasshouse's shaded north end, reading the outside air for degree-days.
+  { id: demoId("sensor:yard"), siteId: site, houseId: glass.id, deviceId: "yard-air", name: "Yard air", placement: "outside" as const },
 ];
 
 type PlugRow = typeof plugs.$inferInsert;

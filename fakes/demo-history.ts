@@ -58,7 +58,8 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
     /** A metering plug's counter, in watt-hours (a little under the rated watts, as real heaters draw). */
     meterWh: 0,
   }));
-  const sensorOfHouse = new Map(layout.sensors.map((s) => [s.houseId, s.id]));
+  const sensorOfHouse = new Map(layout.sensors.filter((s) => s.placement === "inside").map((s) => [s.houseId, s.id]));
+  const outsideSensors = layout.sensors.filter((s) => s.placement === "outside");
   const model = createSiteModel({
     timeZone: site.timeZone,
     startMs,
@@ -114,6 +115,14 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
       const at = new Date(t);
       minutes.push({ sensorId, minute: at, samples: 1, tempMinC: tempC, tempMaxC: tempC, tempMeanC: tempC, rhMean: rh });
       if (t >= rawFromMs) raw.push({ sensorId, at, tempC, rh, battery: 0.9 });
+    }
+    for (const sensor of outsideSensors) {
+      const { weather } = model.snapshot(sensor.houseId);
+      const tempC = Math.round(weather.outsideC * 100) / 100;
+      const rh = Math.round(weather.outsideRh * 100) / 100;
+      const at = new Date(t);
+      minutes.push({ sensorId: sensor.id, minute: at, samples: 1, tempMinC: tempC, tempMaxC: tempC, tempMeanC: tempC, rhMean: rh });
+      if (t >= rawFromMs) raw.push({ sensorId: sensor.id, at, tempC, rh, battery: 0.9 });
     }
     for (const r of runtimes) {
       if (r.plug.metersEnergy) {
@@ -171,6 +180,8 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
     })),
     { fillIn: ["on", "since", "switchCommandId", "presentCause", "lastSeenAt", "updatedAt"] },
   );
+  // The energy roll-up is kept by the controller as it logs switches; the past written
+  // here is rolled up once, so the reports have its kWh.
   await rebuildEnergyDays(db, { siteIds: [site.id] });
   return { skipped: false, ...written };
 }

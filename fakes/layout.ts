@@ -5,7 +5,7 @@ import { asc, eq } from "drizzle-orm";
 import { z } from "zod";
 import type { Database } from "../db/client";
 import { houses, plugs, sensors, sites } from "../db/schema";
-import type { ApplianceKind } from "../lib/domain";
+import type { ApplianceKind, SensorPlacement } from "../lib/domain";
 import type { HouseShape } from "../lib/thermal/heat-loss";
 
 export type LayoutHouse = { id: string; name: string; shape: HouseShape };
@@ -19,7 +19,8 @@ export type LayoutPlug = {
   failsafeOn: boolean;
   metersEnergy: boolean;
 };
-export type LayoutSensor = { id: string; houseId: string; deviceId: string };
+/** An "outside" sensor reads the weather; an "inside" one its house's air. */
+export type LayoutSensor = { id: string; houseId: string; deviceId: string; placement: SensorPlacement };
 
 export type SiteLayout = {
   site: { id: string; slug: string; timeZone: string };
@@ -63,7 +64,7 @@ export async function loadSiteLayout(db: Database, slug: string): Promise<SiteLa
       failsafeOn: p.failsafe === "on",
       metersEnergy: p.metersEnergy,
     })),
-    sensors: sensorRows.map((s) => ({ id: s.id, houseId: s.houseId, deviceId: s.deviceId })),
+    sensors: sensorRows.map((s) => ({ id: s.id, houseId: s.houseId, deviceId: s.deviceId, placement: s.placement })),
   };
 }
 

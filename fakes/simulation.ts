@@ -153,7 +153,7 @@ export async function createSimulation(options: Partial<SimulationOptions> = {})
         logger: log,
         read: () => {
           const h = model.snapshot(s.houseId);
-          return { tempC: h.airC, rh: h.rh };
+          return s.placement === "outside" ? { tempC: h.weather.outsideC, rh: h.weather.outsideRh } : { tempC: h.airC, rh: h.rh };
         },
       });
       sensors.set(s.deviceId, device);

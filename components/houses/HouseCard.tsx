@@ -37,10 +37,10 @@ export function HouseCard({ house, slug, role, timeZone, mainsVoltage, continuou
 
       <LiveReadings
         houseName={house.name}
-        sensors={house.sensors.map(({ id, name, lastSeenAt, staleAfterS }) => ({ id, name, lastSeenAt, staleAfterS }))}
+        sensors={house.sensors.map(({ id, name, placement, lastSeenAt, staleAfterS }) => ({ id, name, placement, lastSeenAt, staleAfterS }))}
       />
 
-      <HouseChart houseId={house.id} houseName={house.name} hasSensor={house.sensors.length > 0} />
+      <HouseChart houseId={house.id} houseName={house.name} hasSensor={house.sensors.some((s) => s.placement === "inside")} />
 
       <section aria-label={`Plugs in ${house.name}`}>
         <h3 className="mb-2 text-xs font-semibold uppercase tracking-wide text-frost-600">Plugs</h3>

@@ -1,7 +1,7 @@
 "use client";
 
 import { isReadingStale } from "@/lib/control/sensor";
-import type { TemperatureUnit } from "@/lib/domain";
+import type { SensorPlacement, TemperatureUnit } from "@/lib/domain";
 import { dewPointC, vapourPressureDeficitKPa } from "@/lib/psychrometrics";
 import { toUnit, unitSymbol } from "@/lib/units";
 import { useTemperatureUnit } from "@/components/site/TemperatureUnit";
@@ -14,7 +14,8 @@ import { useNow, useSiteLive } from "./use-site-live";
 type LiveReadingsProps = {
   houseName: string;
   /** staleAfterS: how old a reading may be before it is shown as not recent (sensorStaleAfterS). */
-  sensors: { id: string; name: string; lastSeenAt: Date | null; staleAfterS: number }[];
+  /** An outside sensor is shown under its name as the outside air, never as the house's temperature. */
+  sensors: { id: string; name: string; placement: SensorPlacement; lastSeenAt: Date | null; staleAfterS: number }[];
 };
 
 /** Each sensor's latest temperature and humidity with its 24 h range, or an honest placeholder. */
@@ -36,7 +37,7 @@ export function LiveReadings({ houseName, sensors }: LiveReadingsProps) {
         reading?.latest ? (
           <SensorReading
             key={sensor.id}
-            label={sensors.length > 1 ? sensor.name : null}
+            label={sensor.placement === "outside" ? `${sensor.name} (outside air)` : sensors.length > 1 ? sensor.name : null}
             houseName={houseName}
             reading={reading}
             staleAfterS={sensor.staleAfterS}

@@ -6,10 +6,11 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { placeFieldErrors, sendJson } from "@/lib/client/api";
 import { DeviceIdentityFields } from "./DeviceIdentityFields";
-import { sensorSchema, type SensorInput } from "@/lib/schemas/sensor";
+import { sensorSchema, type SensorFormInput, type SensorInput } from "@/lib/schemas/sensor";
 import { FormShell } from "./FormShell";
+import { PlacementField } from "./PlacementField";
 
-const FIELDS = ["name", "deviceId", "houseId"] as const;
+const FIELDS = ["name", "deviceId", "houseId", "placement"] as const;
 
 type SensorFormProps = {
   siteId: string;
@@ -29,16 +30,16 @@ export function SensorForm({ siteId, slug, houses, sensor, houseId }: SensorForm
     handleSubmit,
     setError,
     formState: { errors, isSubmitting },
-  } = useForm<SensorInput>({
+  } = useForm<SensorFormInput, unknown, SensorInput>({
     resolver: zodResolver(sensorSchema),
-    defaultValues: sensor ?? { name: "", deviceId: "", houseId: houseId ?? houses[0]?.id ?? "" },
+    defaultValues: sensor ?? { name: "", deviceId: "", houseId: houseId ?? houses[0]?.id ?? "", placement: "inside" },
   });
 
   const onSubmit = handleSubmit(async (values) => {
     setServerError(null);
     setSaved(false);
     const result = sensor
-      ? await sendJson<{ sensor: { id: string } }>(`/api/sites/${siteId}/sensors/${sensor.id}`, "PATCH", { name: values.name, houseId: values.houseId })
+      ? await sendJson<{ sensor: { id: string } }>(`/api/sites/${siteId}/sensors/${sensor.id}`, "PATCH", { name: values.name, houseId: values.houseId, placement: values.placement })
       : await sendJson<{ sensor: { id: string } }>(`/api/sites/${siteId}/sensors`, "POST", values);
     if (!result.ok) {
       setServerError(placeFieldErrors(result.error, FIELDS, (name, message) => setError(name as (typeof FIELDS)[number], { message })));
@@ -64,6 +65,7 @@ export function SensorForm({ siteId, slug, houses, sensor, houseId }: SensorForm
         idExample="glass-air"
         topics="topic"
       />
+      <PlacementField register={register("placement")} error={errors.placement?.message} />
     </FormShell>
   );
 }

@@ -10,12 +10,13 @@ import { useBrowserTimeZones } from "@/components/site/use-browser-time-zone";
 import { Field } from "@/components/ui/Field";
 import { TextInput } from "@/components/ui/TextInput";
 import { placeFieldErrors, sendJson } from "@/lib/client/api";
-import { CONTINUOUS_LOAD_PERCENT } from "@/lib/domain";
+import { CONTINUOUS_LOAD_PERCENT, DEGREE_DAY_METHODS, DEGREE_DAY_METHOD_LABELS } from "@/lib/domain";
+import { Select } from "@/components/ui/Select";
 import { siteChangeSchema, type SiteChange } from "@/lib/schemas/site";
 import { FormShell } from "./FormShell";
 import { NumberField } from "./NumberField";
 
-const FIELDS = ["name", "timeZone", "currency", "mainsVoltage", "continuousLoadPercent"] as const;
+const FIELDS = ["name", "timeZone", "currency", "mainsVoltage", "continuousLoadPercent", "degreeDayMethod"] as const;
 type Settings = Required<SiteChange>;
 
 /** The owner's settings of the site; a change to the zone, voltage or margin reaches the controller at once. */
@@ -76,6 +77,21 @@ export function SiteSettingsForm({ siteId, site }: { siteId: string; site: Setti
           register={register("continuousLoadPercent", { valueAsNumber: true })}
         />
       </div>
+      <Field
+        label="Degree-days"
+        hint="How the degree-day report counts each day’s cold: the UK’s base 15.5 °C or the US base 65 °F. Pick the one your weather service and energy adviser use."
+        error={errors.degreeDayMethod?.message}
+      >
+        {(c) => (
+          <Select {...c} {...register("degreeDayMethod")}>
+            {DEGREE_DAY_METHODS.map((m) => (
+              <option key={m} value={m}>
+                {DEGREE_DAY_METHOD_LABELS[m]}
+              </option>
+            ))}
+          </Select>
+        )}
+      </Field>
     </FormShell>
   );
 }

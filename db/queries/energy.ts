@@ -1,14 +1,23 @@
 import "server-only";
-import { asc, desc, eq } from "drizzle-orm";
+import { and, asc, desc, eq, inArray } from "drizzle-orm";
 import type mysql from "mysql2/promise";
 import { getDb, getPool } from "@/db/client";
 import { loadTariffs } from "@/db/energy-days";
 import { billPeriods, houses, plugs, sites } from "@/db/schema";
+import type { ApplianceKind } from "@/lib/domain";
 import { buildSlices, dayOf } from "@/lib/energy/calendar";
 import { buildReport, bucketOf, type EnergyReport, type ReportBucket, type ReportCell } from "@/lib/energy/report";
 import { accumulate, cellKey, onIntervals } from "@/lib/energy/runtime";
 
-export type EnergyReportInput = { siteId: string; fromDay: string; toDay: string; bucket: ReportBucket; now?: Date };
+export type EnergyReportInput = {
+  siteId: string;
+  fromDay: string;
+  toDay: string;
+  bucket: ReportBucket;
+  now?: Date;
+  /** Only plugs with these appliances (the degree-day report counts heaters only); all when absent. */
+  applianceKinds?: readonly ApplianceKind[];
+};
 
 const BUCKET_SQL: Record<ReportBucket, string> = {
   day: "e.day",
@@ -21,7 +30,7 @@ const BUCKET_SQL: Record<ReportBucket, string> = {
  * inclusive): the roll-up's closed intervals, summed by plug, bucket and rate in
  * MariaDB, and the part of each plug still on now, from its last switch to `now`.
  */
-export async function getEnergyReport({ siteId, fromDay, toDay, bucket, now = new Date() }: EnergyReportInput): Promise<EnergyReport & { zone: string; currency: string; siteName: string }> {
+export async function getEnergyReport({ siteId, fromDay, toDay, bucket, now = new Date(), applianceKinds }: EnergyReportInput): Promise<EnergyReport & { zone: string; currency: string; siteName: string }> {
   const db = getDb();
   const pool = getPool();
   const [[site], houseRows, plugRows, tariffs] = await Promise.all([
@@ -37,7 +46,7 @@ export async function getEnergyReport({ siteId, fromDay, toDay, bucket, now = ne
         retiredAt: plugs.retiredAt,
       })
       .from(plugs)
-      .where(eq(plugs.siteId, siteId))
+      .where(applianceKinds ? and(eq(plugs.siteId, siteId), inArray(plugs.applianceKind, [...applianceKinds])) : eq(plugs.siteId, siteId))
       .orderBy(asc(plugs.name)),
     loadTariffs(pool, siteId),
   ]);

@@ -65,7 +65,8 @@ export async function getHouseChart({
     db
       .select({ id: sensors.id, name: sensors.name })
       .from(sensors)
-      .where(and(eq(sensors.siteId, siteId), eq(sensors.houseId, houseId), isNull(sensors.retiredAt)))
+      // An outside sensor measures the outside air, not the house: never charted as its temperature.
+      .where(and(eq(sensors.siteId, siteId), eq(sensors.houseId, houseId), eq(sensors.placement, "inside"), isNull(sensors.retiredAt)))
       .orderBy(asc(sensors.name)),
     db
       .select({

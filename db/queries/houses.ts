@@ -17,7 +17,7 @@ export type PlugSummary = Pick<
   typeof plugs.$inferSelect,
   "id" | "houseId" | "deviceId" | "name" | "applianceKind" | "applianceWatts" | "ratedCurrentA"
 > & { online: boolean; lastSeenAt: Date | null };
-export type SensorSummary = Pick<typeof sensors.$inferSelect, "id" | "houseId" | "deviceId" | "name"> & {
+export type SensorSummary = Pick<typeof sensors.$inferSelect, "id" | "houseId" | "deviceId" | "name" | "placement"> & {
   online: boolean;
   lastSeenAt: Date | null;
   /** How old its reading may be before the page calls it stale (sensorStaleAfterS). */
@@ -60,6 +60,7 @@ export async function getHouseOverviewsBySite({ siteId }: { siteId: string }): P
         houseId: sensors.houseId,
         deviceId: sensors.deviceId,
         name: sensors.name,
+        placement: sensors.placement,
         online: sql<boolean>`COALESCE(${sensorStates.online}, FALSE)`.mapWith(Boolean),
         lastSeenAt: sensorStates.lastSeenAt,
       })

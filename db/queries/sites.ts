@@ -6,6 +6,7 @@ import { memberships, sites, user } from "@/db/schema";
 import type { NewSiteInput } from "@/lib/schemas/account";
 import type { SiteChange } from "@/lib/schemas/site";
 import type { Role } from "@/lib/permissions";
+import type { DegreeDayMethod } from "@/lib/domain";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "./audit";
 
@@ -17,6 +18,7 @@ export type SiteWithRole = {
   currency: string;
   mainsVoltage: number;
   continuousLoadPercent: number;
+  degreeDayMethod: DegreeDayMethod;
   role: Role;
 };
 
@@ -28,6 +30,7 @@ const siteColumns = {
   currency: sites.currency,
   mainsVoltage: sites.mainsVoltage,
   continuousLoadPercent: sites.continuousLoadPercent,
+  degreeDayMethod: sites.degreeDayMethod,
   role: memberships.role,
 };
 

@@ -3,7 +3,7 @@
 // Costs use the plug's metered energy where its meter was heard, its rated energy elsewhere.
 import { DateTime } from "luxon";
 import { daysFromTo } from "./calendar";
-import { KWH_PER_WATT_MS, KWH_PER_WS } from "./runtime";
+import { wattMsToKwh, wsToKwh } from "./runtime";
 import { tariffOn, type Tariff } from "./tariff";
 
 export const REPORT_BUCKETS = ["day", "week", "month"] as const;
@@ -104,9 +104,9 @@ export function buildReport(input: {
   for (const cell of input.cells) {
     const plug = plugById.get(cell.plugId);
     if (!plug || cell.day < fromDay || cell.day > toDay) continue;
-    const ratedKwh = cell.ratedWattMs * KWH_PER_WATT_MS;
-    const meteredKwh = plug.metersEnergy && cell.meteredWs !== null ? cell.meteredWs * KWH_PER_WS : null;
-    const costedKwh = cell.costedWs * KWH_PER_WS;
+    const ratedKwh = wattMsToKwh(cell.ratedWattMs);
+    const meteredKwh = plug.metersEnergy && cell.meteredWs !== null ? wsToKwh(cell.meteredWs) : null;
+    const costedKwh = wsToKwh(cell.costedWs);
     const rate = rates.get(cell.rateKey);
     const cost = rate ? costedKwh * rate.price * (1 + rate.tariff.taxPercent / 100) : null;
     const f: Figures = { onHours: cell.onMs / 3_600_000, ratedKwh, meteredKwh, costedKwh, cost, unpricedKwh: rate ? 0 : costedKwh };

@@ -123,6 +123,9 @@ export function rollupCells(
   return [...accumulate(slices, intervals, pieces).values()].filter((c) => c.onMs > 0 || (c.meteredWs ?? 0) > 0);
 }
 
-/** Watt-milliseconds to kWh; kWh = kW × h (1 kWh = 3.6e9 W·ms). */
-export const KWH_PER_WATT_MS = 1 / 3_600_000_000;
-export const KWH_PER_WS = 1 / 3_600_000;
+/**
+ * kWh = kW × h: 1 kWh is 3.6e6 watt-seconds, 3.6e9 watt-milliseconds. Divided, not
+ * multiplied by a reciprocal, so whole figures come out whole (7.2e6 W·s is 2 kWh).
+ */
+export const wattMsToKwh = (wattMs: number) => wattMs / 3_600_000_000;
+export const wsToKwh = (ws: number) => ws / 3_600_000;

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { CONTINUOUS_LOAD_PERCENT } from "@/lib/domain";
+import { CONTINUOUS_LOAD_PERCENT, DEGREE_DAY_METHODS } from "@/lib/domain";
 import { currency, line, recordId, timeZone } from "./common";
 
 export const siteParams = z.object({ siteId: recordId("site") });
@@ -22,6 +22,8 @@ export const siteChangeSchema = z
       .int(`${label} must be a whole percent`)
       .min(min, `${label} must be at least ${min} %`)
       .max(max, `${label} must be at most ${max} %`),
+    /** How the degree-day report counts a day's cold (reports only; the controller does not use it). */
+    degreeDayMethod: z.enum(DEGREE_DAY_METHODS, { error: "Degree-day method must be uk_met_office or us_mean" }),
   })
   .partial();
 

@@ -46,7 +46,7 @@ describe("demo seed", () => {
     expect(houseRows.map((h) => h.kind).sort()).toEqual(["glasshouse", "polytunnel", "propagation"]);
     const plugRows = await db.select().from(plugs).where(eq(plugs.siteId, DEMO_SITE.id));
     expect(new Set(plugRows.map((p) => p.applianceKind))).toEqual(new Set(["heater", "fan", "light"]));
-    expect((await db.select().from(sensors).where(eq(sensors.siteId, DEMO_SITE.id))).length).toBe(3);
+    expect((await db.select().from(sensors).where(eq(sensors.siteId, DEMO_SITE.id))).length).toBe(4);
     const roles = await db.select({ role: memberships.role }).from(memberships).where(eq(memberships.siteId, DEMO_SITE.id));
     expect(roles.map((r) => r.role).sort()).toEqual(["grower", "helper", "owner", "viewer"]);
     expect(DEMO_MEMBERS.every((m) => m.email.endsWith(".example"))).toBe(true);

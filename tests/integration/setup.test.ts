@@ -317,6 +317,23 @@ describe("sensors", () => {
     expect(move.status).toBe(409);
   });
 
+  it("places a sensor inside by default, outside when asked, and changes it only when sent", async () => {
+    const inside = await send(sensorsRoute.POST, "POST", { siteId }, sensorBody());
+    expect(inside.json.sensor).toMatchObject({ placement: "inside" });
+    const outside = await send(sensorsRoute.POST, "POST", { siteId }, sensorBody({ placement: "outside" }));
+    expect(outside.status).toBe(201);
+    const params = { siteId, sensorId: (outside.json.sensor as { id: string }).id };
+    expect((await send(sensorRoute.PATCH, "PATCH", params, { name: "Yard, east" })).json.sensor).toMatchObject({ name: "Yard, east", placement: "outside" });
+    const bad = await send(sensorRoute.PATCH, "PATCH", params, { placement: "roof" });
+    expect(bad.status).toBe(400);
+    expect(bad.json.error!.fields).toHaveProperty("placement");
+    expect((await send(sensorRoute.GET, "GET", params)).json.sensor).toMatchObject({ name: "Yard, east", placement: "outside" });
+    const moved = await send(sensorRoute.PATCH, "PATCH", params, { placement: "inside" });
+    expect(moved.json.sensor).toMatchObject({ placement: "inside" });
+    const [audit] = await auditOf(params.sensorId);
+    expect(audit).toMatchObject({ action: "sensor.update", before: { placement: "outside" }, after: { placement: "inside" } });
+  });
+
   it("refuses a bad device id and a helper", async () => {
     expect((await send(sensorsRoute.POST, "POST", { siteId }, sensorBody({ deviceId: "-edge-" }))).status).toBe(400);
     expect((await send(sensorsRoute.POST, "POST", { siteId }, sensorBody(), cookies.helper)).status).toBe(403);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { buildSlices, dayOf, dayStartMs, slicesOfDay } from "@/lib/energy/calendar";
-import { accumulate, KWH_PER_WATT_MS, onIntervals, type LoggedSwitch } from "@/lib/energy/runtime";
+import { accumulate, wattMsToKwh, onIntervals, type LoggedSwitch } from "@/lib/energy/runtime";
 import { ratePiecesOfDay, tariffOn, tariffProblems, type Tariff } from "@/lib/energy/tariff";
 
 const H = 3_600_000;
@@ -67,7 +67,7 @@ describe("energy", () => {
     const slices = buildSlices({ zone: "UTC", fromDay: "2026-01-01", toDay: "2026-01-01", tariffs: [] });
     const cells = accumulate(slices, onIntervals([on("2026-01-01T10:00:00Z", 2000), off("2026-01-01T13:00:00Z")], { fallbackWatts: 0, openUntilMs: null }), null);
     const [cell] = [...cells.values()];
-    expect(cell!.ratedWattMs * KWH_PER_WATT_MS).toBe(6);
+    expect(wattMsToKwh(cell!.ratedWattMs)).toBe(6);
     expect(cell!.ratedWattMs / 1000).toBe(2000 * 3 * 3600); // watt-seconds = 21.6 MJ / 3.6 MJ per kWh = 6 kWh
   });
 
@@ -81,7 +81,7 @@ describe("energy", () => {
     const log = [on("2026-01-01T10:00:00Z", 1000), on("2026-01-01T11:00:00Z", 3000), off("2026-01-01T12:00:00Z")];
     const slices = buildSlices({ zone: "UTC", fromDay: "2026-01-01", toDay: "2026-01-01", tariffs: [] });
     const [cell] = [...accumulate(slices, onIntervals(log, { fallbackWatts: 0, openUntilMs: null }), null).values()];
-    expect(cell!.ratedWattMs * KWH_PER_WATT_MS).toBe(4);
+    expect(wattMsToKwh(cell!.ratedWattMs)).toBe(4);
   });
 });
 

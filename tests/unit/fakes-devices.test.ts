@@ -196,7 +196,7 @@ describe("simulation", () => {
       },
     ],
     plugs: [{ id: "plug-1", houseId: "house-1", deviceId: "bench-heater", applianceKind: "heater", applianceWatts: 1000, failsafeOn: false, metersEnergy: true }],
-    sensors: [{ id: "sensor-1", houseId: "house-1", deviceId: "bench-air" }],
+    sensors: [{ id: "sensor-1", houseId: "house-1", deviceId: "bench-air", placement: "inside" }],
   };
 
   it("warms the house while its heater plug is on and publishes readings, on a fake clock", async () => {

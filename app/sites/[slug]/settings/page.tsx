@@ -3,6 +3,7 @@ import { PageTitle } from "@/components/setup/PageTitle";
 import { Section } from "@/components/setup/Section";
 import { SiteSettingsForm } from "@/components/setup/SiteSettingsForm";
 import { UnitForm } from "@/components/setup/UnitForm";
+import { DEGREE_DAY_METHOD_LABELS } from "@/lib/domain";
 import { can } from "@/lib/permissions";
 import { getCurrentSite } from "../current-site";
 
@@ -18,6 +19,7 @@ export default async function SettingsPage({ params }: Props) {
     currency: site.currency,
     mainsVoltage: site.mainsVoltage,
     continuousLoadPercent: site.continuousLoadPercent,
+    degreeDayMethod: site.degreeDayMethod,
   };
   const rows: [string, string][] = [
     ["Site name", settings.name],
@@ -25,6 +27,7 @@ export default async function SettingsPage({ params }: Props) {
     ["Currency", settings.currency],
     ["Mains voltage", `${settings.mainsVoltage} V`],
     ["Continuous-load margin", `${settings.continuousLoadPercent} % of a plug’s rating`],
+    ["Degree-days", DEGREE_DAY_METHOD_LABELS[settings.degreeDayMethod]],
   ];
   return (
     <div className="flex flex-col gap-6">

@@ -43,7 +43,7 @@ export async function generateMetadata(props: Props): Promise<Metadata> {
 }
 
 export default async function DevicePage(props: Props) {
-  const { site, kind, device, plug } = await loadDevice(props);
+  const { site, kind, device, plug, sensor } = await loadDevice(props);
   const added = (await props.searchParams).added === "1";
   const [options, listed, credential] = await Promise.all([
     deviceFormOptions(site.id, device.houseId),
@@ -128,7 +128,7 @@ export default async function DevicePage(props: Props) {
             <PlugSummary plug={plug!} sensorName={listed.sensors.find((s) => s.id === plug!.sensorId)?.name ?? null} />
           )
         ) : canManage && !retired ? (
-          <SensorForm siteId={site.id} slug={site.slug} houses={options.houses} sensor={{ id: device.id, name: device.name, deviceId: device.deviceId, houseId: device.houseId }} />
+          <SensorForm siteId={site.id} slug={site.slug} houses={options.houses} sensor={{ id: device.id, name: device.name, deviceId: device.deviceId, houseId: device.houseId, placement: sensor!.placement }} />
         ) : (
           <p className="text-sm text-frost-900">
             Device id <span className="font-mono">{device.deviceId}</span>
