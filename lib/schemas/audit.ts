@@ -3,7 +3,7 @@ import { DateTime } from "luxon";
 import { decodeAuditCursor } from "@/lib/audit";
 import { recordId } from "./common";
 
-const localDate = (label: string) =>
+export const localDate = (label: string) =>
   z
     .string({ error: `${label} must be a date` })
     .regex(/^\d{4}-\d{2}-\d{2}$/, `${label} must be a date like 2026-03-14`)
