@@ -1,7 +1,7 @@
 // The switch history's CSV: its header and one record per switch. Text people typed
 // (names, reasons) goes through spreadsheetSafe.
 import { SWITCH_CAUSE_LABELS, type SwitchCause } from "./domain";
-import { SWITCH_STATUS_LABELS, localTimestamp, spreadsheetSafe, type SwitchStatus } from "./switch-history";
+import { SWITCH_STATUS_LABELS, localTimestampFormatter, spreadsheetSafe, type SwitchStatus } from "./switch-history";
 
 export type CsvSwitch = {
   at: Date;
@@ -40,9 +40,11 @@ export function switchCsvHeader(timeZone: string): string[] {
 
 const onOff = (on: boolean | null) => (on === null ? "" : on ? "on" : "off");
 
-export function switchCsvRecord(row: CsvSwitch, timeZone: string): string[] {
-  return [
-    localTimestamp(row.at, timeZone),
+/** The function that makes one record per switch, for rows in the site's zone. */
+export function switchCsvRecords(timeZone: string): (row: CsvSwitch) => string[] {
+  const local = localTimestampFormatter(timeZone);
+  return (row) => [
+    local(row.at),
     row.at.toISOString(),
     spreadsheetSafe(row.houseName),
     spreadsheetSafe(row.plugName),

