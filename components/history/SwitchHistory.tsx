@@ -1,7 +1,7 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
 import useSWRInfinite from "swr/infinite";
 import { Button, buttonClasses } from "@/components/ui/Button";
@@ -69,95 +69,106 @@ export function SwitchHistory({ siteId, timeZone, choices, canExport }: { siteId
   const more = Boolean(data?.at(-1)?.nextCursor);
   const loadingMore = isValidating && size > (data?.length ?? 0);
   const filtered = queryOf(filters) !== "";
+  const activeFilters = Object.values(filters).filter(Boolean).length;
+  // The filters start folded on a phone, so the switches are on the first screen; open on a desk.
+  const filterBox = useRef<HTMLDetailsElement>(null);
+  useEffect(() => {
+    if (filterBox.current && window.matchMedia("(min-width: 640px)").matches) filterBox.current.open = true;
+  }, []);
 
   return (
     <div className="flex flex-col gap-6">
       <Card as="section" className="p-4 sm:p-6" aria-labelledby="history-filters-title">
-        <h2 id="history-filters-title" className="mb-4 text-lg font-semibold text-frost-950">
-          Filter
-        </h2>
-        <form noValidate onSubmit={handleSubmit((values) => setFilters(values))} className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
-          <Field label="House" error={errors.houseId?.message}>
-            {(control) => (
-              <Select
-                {...control}
-                {...register("houseId", {
-                  onChange: (event: { target: { value: string } }) => {
-                    const plug = choices.plugs.find((p) => p.id === getValues("plugId"));
-                    if (plug && event.target.value && plug.houseId !== event.target.value) setValue("plugId", "");
-                  },
-                })}
+        <details ref={filterBox}>
+          <summary className="flex min-h-11 cursor-pointer items-center justify-between gap-3 rounded-lg">
+            <h2 id="history-filters-title" className="text-lg font-semibold text-frost-950">
+              Filter{canExport ? " and download" : ""}
+            </h2>
+            <span className="text-sm text-frost-700">{activeFilters ? `${activeFilters} filter${activeFilters > 1 ? "s" : ""} on` : "Showing everything"}</span>
+          </summary>
+          <form noValidate onSubmit={handleSubmit((values) => setFilters(values))} className="mt-4 grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
+            <Field label="House" error={errors.houseId?.message}>
+              {(control) => (
+                <Select
+                  {...control}
+                  {...register("houseId", {
+                    onChange: (event: { target: { value: string } }) => {
+                      const plug = choices.plugs.find((p) => p.id === getValues("plugId"));
+                      if (plug && event.target.value && plug.houseId !== event.target.value) setValue("plugId", "");
+                    },
+                  })}
+                >
+                  <option value="">Every house</option>
+                  {choices.houses.map((h) => (
+                    <option key={h.id} value={h.id}>
+                      {h.name}
+                    </option>
+                  ))}
+                </Select>
+              )}
+            </Field>
+            <Field label="Plug" error={errors.plugId?.message}>
+              {(control) => (
+                <Select {...control} {...register("plugId")}>
+                  <option value="">Every plug</option>
+                  {plugsShown.map((p) => (
+                    <option key={p.id} value={p.id}>
+                      {p.name}
+                      {p.retired ? " (retired)" : ""}
+                    </option>
+                  ))}
+                </Select>
+              )}
+            </Field>
+            <Field label="Why" error={errors.cause?.message}>
+              {(control) => (
+                <Select {...control} {...register("cause")}>
+                  <option value="">Any reason</option>
+                  {SWITCH_CAUSES.map((c) => (
+                    <option key={c} value={c}>
+                      {causeLabel(c)}
+                    </option>
+                  ))}
+                </Select>
+              )}
+            </Field>
+            <Field label="Switched by" hint="People appear here once they have overridden a plug" error={errors.userId?.message}>
+              {(control) => (
+                <Select {...control} {...register("userId")}>
+                  <option value="">Anyone or the controller</option>
+                  {choices.people.map((p) => (
+                    <option key={p.id} value={p.id}>
+                      {p.name}
+                    </option>
+                  ))}
+                </Select>
+              )}
+            </Field>
+            <Field label="From" hint={`A day in ${timeZone}`} error={errors.from?.message}>
+              {(control) => <TextInput {...control} type="date" {...register("from")} />}
+            </Field>
+            <Field label="To" hint="Included" error={errors.to?.message}>
+              {(control) => <TextInput {...control} type="date" {...register("to")} />}
+            </Field>
+            <div className="flex flex-wrap items-end gap-2 sm:col-span-2 lg:col-span-3">
+              <Button type="submit">Show switches</Button>
+              <Button
+                variant="secondary"
+                onClick={() => {
+                  reset(EMPTY);
+                  setFilters(EMPTY);
+                }}
               >
-                <option value="">Every house</option>
-                {choices.houses.map((h) => (
-                  <option key={h.id} value={h.id}>
-                    {h.name}
-                  </option>
-                ))}
-              </Select>
-            )}
-          </Field>
-          <Field label="Plug" error={errors.plugId?.message}>
-            {(control) => (
-              <Select {...control} {...register("plugId")}>
-                <option value="">Every plug</option>
-                {plugsShown.map((p) => (
-                  <option key={p.id} value={p.id}>
-                    {p.name}
-                    {p.retired ? " (retired)" : ""}
-                  </option>
-                ))}
-              </Select>
-            )}
-          </Field>
-          <Field label="Why" error={errors.cause?.message}>
-            {(control) => (
-              <Select {...control} {...register("cause")}>
-                <option value="">Any reason</option>
-                {SWITCH_CAUSES.map((c) => (
-                  <option key={c} value={c}>
-                    {causeLabel(c)}
-                  </option>
-                ))}
-              </Select>
-            )}
-          </Field>
-          <Field label="Switched by" hint="People appear here once they have overridden a plug" error={errors.userId?.message}>
-            {(control) => (
-              <Select {...control} {...register("userId")}>
-                <option value="">Anyone or the controller</option>
-                {choices.people.map((p) => (
-                  <option key={p.id} value={p.id}>
-                    {p.name}
-                  </option>
-                ))}
-              </Select>
-            )}
-          </Field>
-          <Field label="From" hint={`A day in ${timeZone}`} error={errors.from?.message}>
-            {(control) => <TextInput {...control} type="date" {...register("from")} />}
-          </Field>
-          <Field label="To" hint="Included" error={errors.to?.message}>
-            {(control) => <TextInput {...control} type="date" {...register("to")} />}
-          </Field>
-          <div className="flex flex-wrap items-end gap-2 sm:col-span-2 lg:col-span-3">
-            <Button type="submit">Show switches</Button>
-            <Button
-              variant="secondary"
-              onClick={() => {
-                reset(EMPTY);
-                setFilters(EMPTY);
-              }}
-            >
-              Clear filters
-            </Button>
-            {canExport ? (
-              <a href={`/api/sites/${siteId}/switches/export?${queryOf(filters)}`} download className={buttonClasses("quiet", "sm:ml-auto")}>
-                Download CSV{filtered ? " of these switches" : ""}
-              </a>
-            ) : null}
-          </div>
-        </form>
+                Clear filters
+              </Button>
+              {canExport ? (
+                <a href={`/api/sites/${siteId}/switches/export?${queryOf(filters)}`} download className={buttonClasses("quiet", "sm:ml-auto")}>
+                  Download CSV{filtered ? " of these switches" : ""}
+                </a>
+              ) : null}
+            </div>
+          </form>
+        </details>
       </Card>
 
       <Card as="section" className="p-4 sm:p-6" aria-labelledby="history-list-title" aria-busy={isValidating}>

@@ -42,11 +42,11 @@ export function localParts(at: string, timeZone: string): { day: string; time: s
   };
 }
 
-/** "read 20 s before" / "read 4 min before": how old the reading behind a decision was. */
+/** "read 4 min before": how old the reading behind a decision was, when it is a minute or more. */
 export function readingAge(at: string, readingAt: string | null): string | null {
   if (!readingAt) return null;
   const seconds = Math.max(0, Math.round((new Date(at).getTime() - new Date(readingAt).getTime()) / 1000));
-  if (seconds < 90) return `read ${seconds} s before`;
+  if (seconds < 60) return null;
   if (seconds < 90 * 60) return `read ${Math.round(seconds / 60)} min before`;
   return `read ${(seconds / 3600).toFixed(1)} h before`;
 }

@@ -62,6 +62,7 @@ const historySection: Section = {
       ["cause: schedule", { cause: "schedule" }],
       ["cause: manual override", { cause: "override" }],
       ["one plug", { plugId: house.plugIds[2]! }],
+      ["house + cause: manual override", { houseId: house.id, cause: "override" }],
       ["house + 30 local days", { houseId: house.id, from: "2026-03-15", to: "2026-04-13" }],
       ["person (overrides)", { userId: data.userIds[0]! }],
     ];
