@@ -79,12 +79,17 @@ export function SwitchHistory({ siteId, timeZone, choices, canExport }: { siteId
   return (
     <div className="flex flex-col gap-6">
       <Card as="section" className="p-4 sm:p-6" aria-labelledby="history-filters-title">
-        <details ref={filterBox}>
+        <details ref={filterBox} className="group">
           <summary className="flex min-h-11 cursor-pointer items-center justify-between gap-3 rounded-lg">
             <h2 id="history-filters-title" className="text-lg font-semibold text-frost-950">
               Filter{canExport ? " and download" : ""}
             </h2>
-            <span className="text-sm text-frost-700">{activeFilters ? `${activeFilters} filter${activeFilters > 1 ? "s" : ""} on` : "Showing everything"}</span>
+            <span className="flex items-center gap-2 text-sm text-frost-700">
+              {activeFilters ? `${activeFilters} filter${activeFilters > 1 ? "s" : ""} on` : "Showing everything"}
+              <span aria-hidden="true" className="text-lg leading-none transition-transform group-open:rotate-180">
+                ▾
+              </span>
+            </span>
           </summary>
           <form noValidate onSubmit={handleSubmit((values) => setFilters(values))} className="mt-4 grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
             <Field label="House" error={errors.houseId?.message}>
