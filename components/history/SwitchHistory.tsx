@@ -166,7 +166,7 @@ export function SwitchHistory({ siteId, timeZone, choices, canExport }: { siteId
               >
                 Clear filters
               </Button>
-              {canExport ? (
+              {canExport && rows.length > 0 ? (
                 <a href={`/api/sites/${siteId}/switches/export?${queryOf(filters)}`} download className={buttonClasses("quiet", "sm:ml-auto")}>
                   Download CSV{filtered ? " of these switches" : ""}
                 </a>
