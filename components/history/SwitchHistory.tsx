@@ -84,8 +84,8 @@ export function SwitchHistory({ siteId, timeZone, choices, canExport }: { siteId
             <h2 id="history-filters-title" className="text-lg font-semibold text-frost-950">
               Filter{canExport ? " and download" : ""}
             </h2>
-            <span className="flex items-center gap-2 text-sm text-frost-700">
-              {activeFilters ? `${activeFilters} filter${activeFilters > 1 ? "s" : ""} on` : "Showing everything"}
+            <span className="flex shrink-0 items-center gap-2 whitespace-nowrap text-sm text-frost-700">
+              {activeFilters ? `${activeFilters} filter${activeFilters > 1 ? "s" : ""} on` : "All switches"}
               <span aria-hidden="true" className="text-lg leading-none transition-transform group-open:rotate-180">
                 ▾
               </span>
