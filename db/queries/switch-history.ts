@@ -51,7 +51,6 @@ type Shape = "plug" | "cause" | "merge" | "time";
 
 const MERGE_MAX_PLUGS = 200;
 
-
 type ScopePlug = { id: string; name: string; deviceId: string; retired: boolean; houseId: string; houseName: string };
 
 type Scope = {
