@@ -90,12 +90,12 @@ export function parseBillCsv(text: string): BillCsvResult {
   return { ok: true, bills };
 }
 
+/** The first problem of each column, named as the file names it rather than as the form does. */
 function describeIssues(error: z.ZodError): string {
-  return error.issues
-    .map((issue) => {
-      const column = FIELD_NAMES[String(issue.path[0])] ?? "row";
-      // The schema's messages name the form's fields; the file's columns are named instead.
-      return `${column}: ${issue.message.replace(/^(From|To|kWh|Amount|Label) /, "")}`;
-    })
-    .join("; ");
+  const byColumn = new Map<string, string>();
+  for (const issue of error.issues) {
+    const column = FIELD_NAMES[String(issue.path[0])] ?? "row";
+    if (!byColumn.has(column)) byColumn.set(column, issue.message.replace(/^(From|To|kWh|Amount|Label) /, ""));
+  }
+  return [...byColumn].map(([column, message]) => `${column}: ${message}`).join("; ");
 }
