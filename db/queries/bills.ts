@@ -4,6 +4,7 @@ import { randomUUID } from "node:crypto";
 import { getDb } from "@/db/client";
 import { billPeriods } from "@/db/schema";
 import { checkBill, type BillCheck } from "@/lib/bills/check";
+import { dayOf } from "@/lib/energy/calendar";
 import { AppError } from "@/lib/errors";
 import { daysInPeriod, type Bill } from "@/lib/schemas/bill";
 import { describeValidity } from "@/lib/tariffs/validity";
@@ -35,6 +36,11 @@ export async function requireBill({ siteId, billId }: { siteId: string; billId: 
     .limit(1);
   if (!row) throw new AppError("not_found", "No such bill in this site.");
   return row;
+}
+
+/** Today's date in a site's zone. */
+export function siteToday(timeZone: string, now = new Date()): string {
+  return dayOf(now.getTime(), timeZone);
 }
 
 /** Each bill beside heating's computed share of its dates (the energy report of those days). */

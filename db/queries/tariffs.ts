@@ -31,13 +31,11 @@ function toView(t: Tariff): TariffView {
   };
 }
 
-/** The site's tariffs, newest first, and the one in force today in the site's zone. */
+/** The site's tariffs, newest first, today's date in the site's zone and the tariff in force on it. */
 export async function getTariffsBySite({ siteId, timeZone, now = new Date() }: { siteId: string; timeZone: string; now?: Date }) {
   const stored = await loadTariffs(getPool(), siteId);
-  return {
-    tariffs: stored.map(toView).reverse(),
-    currentTariffId: currentTariffId(stored, dayOf(now.getTime(), timeZone)),
-  };
+  const today = dayOf(now.getTime(), timeZone);
+  return { tariffs: stored.map(toView).reverse(), currentTariffId: currentTariffId(stored, today), today };
 }
 
 export async function requireTariff({ siteId, tariffId }: { siteId: string; tariffId: string }): Promise<TariffView> {

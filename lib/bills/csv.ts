@@ -66,13 +66,16 @@ export function parseBillCsv(text: string): BillCsvResult {
     const kwh = number(cell("kwh"), "kwh");
     const amount = number(cell("amount"), "amount");
     const numberProblems = [kwh, amount].filter((v): v is string => typeof v === "string");
-    if (numberProblems.length) {
-      problems.push({ line, message: numberProblems.join("; ") });
-      continue;
-    }
-    const parsed = billSchema.safeParse({ startsOn: cell("from"), endsOn: cell("to"), label: cell("label") || null, billedKwh: kwh, billedAmount: amount });
-    if (!parsed.success) {
-      problems.push({ line, message: describeIssues(parsed.error) });
+    // Numbers that did not read stand in as 0 so the rest of the row is still checked.
+    const parsed = billSchema.safeParse({
+      startsOn: cell("from"),
+      endsOn: cell("to"),
+      label: cell("label") || null,
+      billedKwh: typeof kwh === "number" ? kwh : 0,
+      billedAmount: typeof amount === "number" ? amount : 0,
+    });
+    if (!parsed.success || numberProblems.length) {
+      problems.push({ line, message: [...(parsed.success ? [] : [describeIssues(parsed.error)]), ...numberProblems].join("; ") });
       continue;
     }
     const key = `${parsed.data.startsOn}|${parsed.data.endsOn}`;
