@@ -1,5 +1,5 @@
 import "server-only";
-import { and, eq, ne } from "drizzle-orm";
+import { and, asc, eq, ne } from "drizzle-orm";
 import { randomUUID } from "node:crypto";
 import { getDb, getPool } from "@/db/client";
 import { loadTariffs, refreshSiteEnergyDays } from "@/db/energy-days";
@@ -66,7 +66,8 @@ async function assertNoOverlap(tx: Tx, siteId: string, input: Validity, exceptId
   const others = await tx
     .select({ id: tariffs.id, name: tariffs.name, validFrom: tariffs.validFrom, validUntil: tariffs.validUntil })
     .from(tariffs)
-    .where(exceptId ? and(eq(tariffs.siteId, siteId), ne(tariffs.id, exceptId)) : eq(tariffs.siteId, siteId));
+    .where(exceptId ? and(eq(tariffs.siteId, siteId), ne(tariffs.id, exceptId)) : eq(tariffs.siteId, siteId))
+    .orderBy(asc(tariffs.validFrom));
   const clash = overlappingTariff(input, others);
   if (clash) {
     const message = `These dates overlap “${clash.name}” (${describeValidity(clash)}). A site has one tariff on each day: give that one an end date first, or choose other dates.`;
