@@ -25,7 +25,7 @@ export function BillBar({ billedKwh, heatingKwh }: { billedKwh: number; heatingK
       <figcaption className="flex flex-wrap gap-x-4 gap-y-1 text-xs text-frost-700">
         <span className="flex items-center gap-1.5">
           <span aria-hidden="true" className={`inline-block size-3 rounded-sm ${over ? "bg-ember-500" : "bg-soil-500"}`} />
-          Heating{share === null ? "" : ` ${share} %`}
+          {over ? "Heating, more than the bill" : `Heating${share === null ? "" : ` ${share} %`}`}
         </span>
         {over ? (
           <span className="flex items-center gap-1.5">

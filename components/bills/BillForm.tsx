@@ -3,10 +3,10 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { FormShell } from "@/components/setup/FormShell";
 import { NumberField } from "@/components/setup/NumberField";
 import { Button } from "@/components/ui/Button";
 import { Field } from "@/components/ui/Field";
+import { Notice } from "@/components/ui/Notice";
 import { TextInput } from "@/components/ui/TextInput";
 import { placeFieldErrors, sendJson } from "@/lib/client/api";
 import { billSchema, type Bill, type BillInput } from "@/lib/schemas/bill";
@@ -45,7 +45,8 @@ export function BillForm({ siteId, currency, billId, initial, onSaved, onCancel 
   });
 
   return (
-    <FormShell onSubmit={onSubmit} error={serverError} pending={isSubmitting} submitLabel={billId ? "Save bill" : "Add bill"} pendingLabel="Saving…">
+    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4">
+      {serverError ? <Notice tone="error">{serverError}</Notice> : null}
       <div className="grid gap-4 sm:grid-cols-2">
         <Field label="From" hint="The first day the bill covers." error={errors.startsOn?.message}>
           {(c) => <TextInput {...c} type="date" {...register("startsOn")} />}
@@ -65,9 +66,14 @@ export function BillForm({ siteId, currency, billId, initial, onSaved, onCancel 
       <Field label="Label (optional)" hint="e.g. “Winter quarter 2026”." error={errors.label?.message}>
         {(c) => <TextInput {...c} autoComplete="off" {...register("label", { setValueAs: (v: string | null) => (v ? v : null) })} />}
       </Field>
-      <Button variant="secondary" className="w-full sm:w-auto sm:self-start" onClick={onCancel} disabled={isSubmitting}>
-        Cancel
-      </Button>
-    </FormShell>
+      <div className="flex flex-wrap gap-2">
+        <Button type="submit" pending={isSubmitting} pendingLabel="Saving…">
+          {billId ? "Save bill" : "Add bill"}
+        </Button>
+        <Button variant="secondary" onClick={onCancel} disabled={isSubmitting}>
+          Cancel
+        </Button>
+      </div>
+    </form>
   );
 }

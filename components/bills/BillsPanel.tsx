@@ -7,7 +7,7 @@ import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { Notice } from "@/components/ui/Notice";
 import type { BillCheck } from "@/lib/bills/check";
-import { formatKwh, formatMoney } from "@/lib/tariffs/money";
+import { formatMoney, formatNumber } from "@/lib/tariffs/money";
 import { formatDay } from "@/lib/tariffs/validity";
 import { BillBar } from "./BillBar";
 import { BillForm } from "./BillForm";
@@ -136,7 +136,7 @@ function BillComparison({ bill, currency, canEdit, tariffsHref }: { bill: BillVi
         </Notice>
       ) : null}
       <div className="overflow-x-auto">
-        <table className="w-full min-w-[18rem] text-left text-sm">
+        <table className="w-full max-w-2xl min-w-[18rem] text-left text-sm">
           <caption className="sr-only">The bill beside heating’s computed share</caption>
           <thead className="text-xs text-frost-600">
             <tr>
@@ -148,14 +148,14 @@ function BillComparison({ bill, currency, canEdit, tariffsHref }: { bill: BillVi
               <th className="py-1 text-right font-medium">Everything else</th>
             </tr>
           </thead>
-          <tbody className="tabular-nums">
+          <tbody className="whitespace-nowrap tabular-nums">
             <tr className="border-t border-frost-100">
               <th scope="row" className="py-1.5 pr-2 font-medium text-frost-800">
-                Electricity
+                kWh
               </th>
-              <td className="py-1.5 pr-2 text-right">{bill.billedKwh === null ? "—" : formatKwh(bill.billedKwh)}</td>
-              <td className="py-1.5 pr-2 text-right">{formatKwh(heating.kwh)}</td>
-              <td className={`py-1.5 text-right ${rest && rest.kwh < 0 ? "font-semibold text-ember-700" : ""}`}>{rest ? formatKwh(rest.kwh) : "—"}</td>
+              <td className="py-1.5 pr-2 text-right">{bill.billedKwh === null ? "—" : formatNumber(bill.billedKwh)}</td>
+              <td className="py-1.5 pr-2 text-right">{formatNumber(heating.kwh)}</td>
+              <td className={`py-1.5 text-right ${rest && rest.kwh < 0 ? "font-semibold text-ember-700" : ""}`}>{rest ? formatNumber(rest.kwh) : "—"}</td>
             </tr>
             <tr className="border-t border-frost-100">
               <th scope="row" className="py-1.5 pr-2 font-medium text-frost-800">

@@ -10,9 +10,9 @@ import { Notice } from "@/components/ui/Notice";
 import { TextInput } from "@/components/ui/TextInput";
 import { placeFieldErrors, sendJson } from "@/lib/client/api";
 import { TARIFF_KIND_LABELS, TARIFF_KINDS } from "@/lib/domain";
-import { tariffProblems } from "@/lib/energy/tariff";
 import { tariffSchema, type TariffInput } from "@/lib/schemas/tariff";
 import { currencySymbol } from "@/lib/tariffs/money";
+import { coverageProblems, tariffWeek } from "@/lib/tariffs/week";
 import { WEEKDAYS, WEEKDAY_NAMES, WEEKDAY_SHORT } from "@/lib/schedules/week";
 import { TariffWeek } from "./TariffWeek";
 
@@ -40,11 +40,6 @@ type Props = {
   onCancel: () => void;
 };
 
-/** Problems of the rates as the reports read them, while the owner types (half-typed rates left out). */
-function liveProblems(kind: TariffInput["kind"], rates: TariffInput["rates"]): string[] {
-  const usable = rates.filter((r) => /^\d\d:\d\d$/.test(r.startsAt) && /^\d\d:\d\d$/.test(r.endsAt));
-  return tariffProblems({ kind, rates: usable.map((r, i) => ({ ...r, id: String(i), label: r.label || `Rate ${i + 1}` })) });
-}
 
 function rateError(errors: FieldErrors<TariffInput>): string | undefined {
   const rates = errors.rates as { message?: string; root?: { message?: string } } | undefined;
@@ -53,7 +48,8 @@ function rateError(errors: FieldErrors<TariffInput>): string | undefined {
 
 /** The owner's tariff editor: a flat rate or rates by weekday and time, checked to cover the week once. */
 export function TariffForm({ siteId, currency, tariffId, initial, onSaved, onCancel }: Props) {
-  const [serverError, setServerError] = useState<string | null>(null);
+  // The form is long on a phone: a refusal is also said beside the button that was pressed.
+  const [refusal, setRefusal] = useState<string | null>(null);
   const {
     register,
     control,
@@ -66,7 +62,9 @@ export function TariffForm({ siteId, currency, tariffId, initial, onSaved, onCan
   const { fields, append, remove, replace } = useFieldArray({ control, name: "rates" });
   const kind = useWatch({ control, name: "kind" });
   const rates = useWatch({ control, name: "rates" }) ?? [];
-  const problems = kind === "time_of_use" ? liveProblems(kind, rates) : [];
+  const labels = rates.map((r, i) => r.label?.trim() || `Rate ${i + 1}`);
+  // While the owner types: the week as the reports read it, same stretches on several days told once.
+  const problems = kind === "time_of_use" ? coverageProblems(tariffWeek(kind, rates), labels) : [];
 
   function chooseKind(next: TariffInput["kind"]) {
     setValue("kind", next);
@@ -77,10 +75,11 @@ export function TariffForm({ siteId, currency, tariffId, initial, onSaved, onCan
   }
 
   const onSubmit = handleSubmit(async (values) => {
-    setServerError(null);
+    setRefusal(null);
     const result = await sendJson<{ reportsUpdated: boolean }>(tariffId ? `/api/sites/${siteId}/tariffs/${tariffId}` : `/api/sites/${siteId}/tariffs`, tariffId ? "PUT" : "POST", values);
     if (!result.ok) {
-      setServerError(placeFieldErrors(result.error, FIELDS, (name, message) => setError(name as (typeof FIELDS)[number], { message })));
+      placeFieldErrors(result.error, FIELDS, (name, message) => setError(name as (typeof FIELDS)[number], { message }));
+      setRefusal(result.error.message);
       return;
     }
     onSaved(
@@ -93,7 +92,6 @@ export function TariffForm({ siteId, currency, tariffId, initial, onSaved, onCan
   const unit = currencySymbol(currency);
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-5" aria-label={tariffId ? "Change tariff" : "New tariff"}>
-      {serverError ? <Notice tone="error">{serverError}</Notice> : null}
       <Field label="Name" hint="As your supplier calls it, e.g. “Economy two-rate 2026”." error={errors.name?.message}>
         {(c) => <TextInput {...c} {...register("name")} autoComplete="off" />}
       </Field>
@@ -212,6 +210,11 @@ export function TariffForm({ siteId, currency, tariffId, initial, onSaved, onCan
         </section>
       ) : null}
 
+      {refusal ? (
+        <p role="alert" className="text-sm font-medium text-ember-700">
+          Not saved: {refusal}
+        </p>
+      ) : null}
       <div className="flex flex-wrap gap-2">
         <Button type="submit" pending={isSubmitting} pendingLabel="Saving…">
           {tariffId ? "Save tariff" : "Add tariff"}

@@ -3,6 +3,7 @@ import { and, desc, eq, ne } from "drizzle-orm";
 import { randomUUID } from "node:crypto";
 import { getDb } from "@/db/client";
 import { billPeriods } from "@/db/schema";
+import { transactionWithRetry } from "@/db/transaction";
 import { checkBill, type BillCheck } from "@/lib/bills/check";
 import { dayOf } from "@/lib/energy/calendar";
 import { AppError } from "@/lib/errors";
@@ -72,6 +73,11 @@ const audited = (b: Pick<BillRow, "startsOn" | "endsOn" | "label" | "billedKwh" 
   billedAmount: b.billedAmount,
 });
 
+/**
+ * The stored bill with these dates, locked. Two saves of the same new dates at once meet
+ * on InnoDB's gap lock; the deadlock victim is run again (transactionWithRetry) and then
+ * finds the other's row.
+ */
 async function billWithDates(tx: Tx, siteId: string, bill: Pick<Bill, "startsOn" | "endsOn">, exceptId: string | null) {
   const [row] = await tx
     .select(columns)
@@ -96,7 +102,7 @@ function sameDatesError(other: BillRow): AppError {
 
 export async function createBill({ siteId, userId, input }: { siteId: string; userId: string; input: Bill }) {
   const id = randomUUID();
-  await getDb().transaction(async (tx) => {
+  await transactionWithRetry(getDb(), async (tx) => {
     const other = await billWithDates(tx, siteId, input, null);
     if (other) throw sameDatesError(other);
     await tx.insert(billPeriods).values({ id, siteId, ...input });
@@ -106,7 +112,7 @@ export async function createBill({ siteId, userId, input }: { siteId: string; us
 }
 
 export async function updateBill({ siteId, userId, before, input }: { siteId: string; userId: string; before: BillRow; input: Bill }) {
-  await getDb().transaction(async (tx) => {
+  await transactionWithRetry(getDb(), async (tx) => {
     const other = await billWithDates(tx, siteId, input, before.id);
     if (other) throw sameDatesError(other);
     await tx.update(billPeriods).set(input).where(and(eq(billPeriods.id, before.id), eq(billPeriods.siteId, siteId)));
@@ -130,7 +136,7 @@ const sameFigures = (a: BillRow, b: Bill) => a.label === b.label && a.billedKwh 
  */
 export async function importBills({ siteId, userId, bills }: { siteId: string; userId: string; bills: readonly Bill[] }) {
   const counts = { created: 0, updated: 0, unchanged: 0 };
-  await getDb().transaction(async (tx) => {
+  await transactionWithRetry(getDb(), async (tx) => {
     for (const bill of bills) {
       const input = { startsOn: bill.startsOn, endsOn: bill.endsOn, label: bill.label, billedKwh: bill.billedKwh, billedAmount: bill.billedAmount };
       const stored = await billWithDates(tx, siteId, input, null);

@@ -21,9 +21,14 @@ export function formatUnitPrice(value: number, currency: string): string {
 
 const kwhFormat = new Intl.NumberFormat("en-GB", { maximumFractionDigits: 1 });
 
+/** "1,840.5": kWh to a tenth. */
+export function formatNumber(value: number): string {
+  return kwhFormat.format(value);
+}
+
 /** "1,840.5 kWh" */
 export function formatKwh(value: number): string {
-  return `${kwhFormat.format(value)} kWh`;
+  return `${formatNumber(value)} kWh`;
 }
 
 /** "£" for GBP, "CHF" where the currency has no sign of its own. */

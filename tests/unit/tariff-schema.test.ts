@@ -3,7 +3,7 @@ import { minuteOfDay } from "@/lib/energy/tariff";
 import { tariffSchema, type TariffInput } from "@/lib/schemas/tariff";
 import { WEEKDAYS } from "@/lib/schedules/week";
 import { daysToRefresh, overlappingTariff } from "@/lib/tariffs/validity";
-import { describeDayRow, tariffWeek } from "@/lib/tariffs/week";
+import { coverageProblems, describeDayRow, tariffWeek } from "@/lib/tariffs/week";
 
 const everyDay = [...WEEKDAYS];
 
@@ -67,14 +67,21 @@ describe("tariff schema", () => {
   it("names the day and times no rate covers", () => {
     const weekdaysOnly = { ...nightAndDay, rates: nightAndDay.rates.map((r) => (r.label === "Day" ? { ...r, days: WEEKDAYS.slice(0, 5) } : r)) };
     // Saturday and Sunday lose their day rate (07:30–24:00); Friday's still wraps into
-    // Saturday 00:00–00:30, and Sunday's missing one leaves Monday 00:00–00:30 bare.
+    // Saturday 00:00–00:30, but the missing Saturday and Sunday ones leave Sunday and
+    // Monday 00:00–00:30 bare.
     expect(hoursPerDay(weekdaysOnly.rates)).toEqual([23.5, 24, 24, 24, 24, 7.5, 7]);
     const found = messages(weekdaysOnly).join(" ");
     expect(found).toContain("No rate covers Saturday 07:30–24:00");
     expect(found).toContain("No rate covers Sunday 07:30–24:00");
     expect(found).toContain("No rate covers Monday 00:00–00:30");
+    expect(found).toContain("No rate covers Sunday 00:00–00:30");
     expect(found).not.toContain("Saturday 00:00");
     expect(found).not.toContain("Tuesday");
+    // The editor tells the same stretch on several days once.
+    expect(coverageProblems(tariffWeek("time_of_use", weekdaysOnly.rates), ["Night", "Day"])).toEqual([
+      "No rate covers 00:00–00:30 (Mon, Sun).",
+      "No rate covers 07:30–24:00 (Sat, Sun).",
+    ]);
   });
 
   it("names the day and time two rates claim", () => {
@@ -82,9 +89,14 @@ describe("tariff schema", () => {
     expect(hoursPerDay(doubled.rates)[2]).toBe(26);
     expect(messages(doubled).join(" ")).toMatch(/overlap on Wednesday at 06:00/);
     const wednesday = tariffWeek("time_of_use", doubled.rates)[2]!;
+    // Boost (06:00–08:00) meets Night until 07:30 and Day from 07:30.
     expect(wednesday.doubled).toEqual([
-      { fromMin: 360, toMin: 450 },
-      { fromMin: 450, toMin: 480 },
+      { fromMin: 360, toMin: 450, rates: [0, 2] },
+      { fromMin: 450, toMin: 480, rates: [2, 1] },
+    ]);
+    expect(coverageProblems(tariffWeek("time_of_use", doubled.rates), ["Night", "Day", "Boost"])).toEqual([
+      "Night and Boost both cover 06:00–07:30 (Wed).",
+      "Boost and Day both cover 07:30–08:00 (Wed).",
     ]);
   });
 
