@@ -5,11 +5,13 @@ import { useState } from "react";
 import { ConfirmButton } from "@/components/setup/ConfirmButton";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
+import { Notice } from "@/components/ui/Notice";
 import { TARIFF_KIND_LABELS } from "@/lib/domain";
 import type { TariffInput } from "@/lib/schemas/tariff";
 import { describeDays } from "@/lib/schedules/week";
 import { formatMoney, formatUnitPrice } from "@/lib/tariffs/money";
 import { describeValidity, formatDay } from "@/lib/tariffs/validity";
+import { coverageProblems, tariffWeek } from "@/lib/tariffs/week";
 import { TariffForm, blankTariff } from "./TariffForm";
 import { TariffWeek } from "./TariffWeek";
 
@@ -115,6 +117,8 @@ function nextDate(day: string): string {
 }
 
 function TariffSummary({ tariff: t, currency, current }: { tariff: Tariff; currency: string; current: boolean }) {
+  // Rows stored by other means than the editor (an import, the demo) may not cover the week once.
+  const problems = t.kind === "time_of_use" ? coverageProblems(tariffWeek(t.kind, t.rates), t.rates.map((r) => r.label)) : [];
   return (
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap items-start justify-between gap-2">
@@ -170,6 +174,16 @@ function TariffSummary({ tariff: t, currency, current }: { tariff: Tariff; curre
           ))}
         </tbody>
       </table>
+      {problems.length ? (
+        <Notice tone="caution">
+          <p className="font-medium">These rates do not cover the week once, so reports leave some hours without a price or take the earlier-starting rate:</p>
+          <ul className="mt-1 list-disc pl-5">
+            {problems.map((p) => (
+              <li key={p}>{p}</li>
+            ))}
+          </ul>
+        </Notice>
+      ) : null}
       {t.kind === "time_of_use" ? <TariffWeek kind={t.kind} rates={t.rates} /> : null}
     </div>
   );

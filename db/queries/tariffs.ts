@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, eq, ne } from "drizzle-orm";
+import { and, asc, eq, inArray, ne } from "drizzle-orm";
 import { randomUUID } from "node:crypto";
 import { getDb, getPool } from "@/db/client";
 import { loadTariffs, refreshSiteEnergyDays } from "@/db/energy-days";
@@ -75,9 +75,17 @@ async function assertNoOverlap(tx: Tx, siteId: string, input: Validity, exceptId
   }
 }
 
-async function insertRates(tx: Tx, tariffId: string, rates: TariffInput["rates"]) {
-  if (rates.length === 0) return;
-  await tx.insert(tariffRates).values(rates.map((r) => ({ id: randomUUID(), tariffId, ...r, days: r.days.join(",") })));
+/**
+ * Makes the tariff's rates the ones given. Stored rates keep their ids in list order
+ * (the roll-up and the audit trail refer to them), extra ones are added, the rest go.
+ */
+async function saveRates(tx: Tx, tariffId: string, rates: TariffInput["rates"]) {
+  const stored = await tx.select({ id: tariffRates.id }).from(tariffRates).where(eq(tariffRates.tariffId, tariffId)).orderBy(asc(tariffRates.startsAt), asc(tariffRates.id));
+  const rows = rates.map((r, i) => ({ id: stored[i]?.id ?? randomUUID(), tariffId, ...r, days: r.days.join(",") }));
+  for (const row of rows.slice(0, stored.length)) await tx.update(tariffRates).set(row).where(eq(tariffRates.id, row.id));
+  if (rows.length > stored.length) await tx.insert(tariffRates).values(rows.slice(stored.length));
+  const gone = stored.slice(rows.length).map((r) => r.id);
+  if (gone.length) await tx.delete(tariffRates).where(inArray(tariffRates.id, gone));
 }
 
 function tariffRow(input: TariffInput) {
@@ -116,7 +124,7 @@ export async function createTariff({ siteId, userId, input }: { siteId: string; 
   await getDb().transaction(async (tx) => {
     await assertNoOverlap(tx, siteId, input, null);
     await tx.insert(tariffs).values({ id, siteId, ...tariffRow(input) });
-    await insertRates(tx, id, input.rates);
+    await saveRates(tx, id, input.rates);
     await recordAudit(tx, { siteId, userId, action: "tariff.create", entityType: "tariff", entityId: id, after: audited(input) });
   });
   const reportsUpdated = await refreshAfter(siteId, null, input);
@@ -129,8 +137,7 @@ export async function updateTariff({ siteId, userId, before, input }: { siteId: 
     await assertNoOverlap(tx, siteId, input, before.id);
     const changed = await tx.update(tariffs).set(tariffRow(input)).where(and(eq(tariffs.id, before.id), eq(tariffs.siteId, siteId)));
     if (changed[0].affectedRows === 0) throw new AppError("not_found", "No such tariff in this site.");
-    await tx.delete(tariffRates).where(eq(tariffRates.tariffId, before.id));
-    await insertRates(tx, before.id, input.rates);
+    await saveRates(tx, before.id, input.rates);
     await recordAudit(tx, { siteId, userId, action: "tariff.update", entityType: "tariff", entityId: before.id, before: audited(before), after: audited(input) });
   });
   const reportsUpdated = await refreshAfter(siteId, before, input);

@@ -6,7 +6,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { refreshEnergyDays } from "@/db/energy-days";
 import { getEnergyReport } from "@/db/queries/energy";
-import { auditLog, billPeriods, houses, plugs, switchEvents, tariffs } from "@/db/schema";
+import { auditLog, billPeriods, houses, plugs, switchEvents, tariffRates, tariffs } from "@/db/schema";
 import { DEMO_MEMBERS, DEMO_SITE, demoId, seedDemo } from "@/db/seed";
 import * as sitesRoute from "@/app/api/sites/route";
 import * as tariffsRoute from "@/app/api/sites/[siteId]/tariffs/route";
@@ -94,8 +94,12 @@ describe("a tariff change", () => {
     expect((await reportOf("2025-03-11")).cost).toBeCloseTo(1.68, 9);
 
     // The flat tariff ends on the 10th; the time-of-use one starts on the 11th.
+    const rateIds = async (tariffId: string) => (await db.select({ id: tariffRates.id }).from(tariffRates).where(eq(tariffRates.tariffId, tariffId))).map((r) => r.id);
+    const flatRates = await rateIds(flatId);
     const ended = await put(tariffRoute.PUT, { siteId, tariffId: flatId }, { ...flat, validUntil: "2025-03-10" });
     expect(ended.status).toBe(200);
+    // A saved rate keeps its id (the roll-up and the audit trail refer to it).
+    expect(await rateIds(flatId)).toEqual(flatRates);
     const second = await post(tariffsRoute.POST, `/api/sites/${siteId}/tariffs`, { siteId }, timeOfUse);
     expect(second.status).toBe(201);
     const touId = ((await json(second)).tariff as { id: string }).id;
