@@ -76,16 +76,25 @@ async function assertNoOverlap(tx: Tx, siteId: string, input: Validity, exceptId
 }
 
 /**
- * Makes the tariff's rates the ones given. Stored rates keep their ids in list order
- * (the roll-up and the audit trail refer to them), extra ones are added, the rest go.
+ * Makes the tariff's rates the ones given. A stored rate keeps its id (the roll-up and
+ * the audit trail refer to it) when a rate of the same name is saved, else the next
+ * unclaimed one is reused in list order; extra rates are added, the rest go.
  */
 async function saveRates(tx: Tx, tariffId: string, rates: TariffInput["rates"]) {
-  const stored = await tx.select({ id: tariffRates.id }).from(tariffRates).where(eq(tariffRates.tariffId, tariffId)).orderBy(asc(tariffRates.startsAt), asc(tariffRates.id));
-  const rows = rates.map((r, i) => ({ id: stored[i]?.id ?? randomUUID(), tariffId, ...r, days: r.days.join(",") }));
-  for (const row of rows.slice(0, stored.length)) await tx.update(tariffRates).set(row).where(eq(tariffRates.id, row.id));
-  if (rows.length > stored.length) await tx.insert(tariffRates).values(rows.slice(stored.length));
-  const gone = stored.slice(rows.length).map((r) => r.id);
-  if (gone.length) await tx.delete(tariffRates).where(inArray(tariffRates.id, gone));
+  const stored = await tx
+    .select({ id: tariffRates.id, label: tariffRates.label })
+    .from(tariffRates)
+    .where(eq(tariffRates.tariffId, tariffId))
+    .orderBy(asc(tariffRates.startsAt), asc(tariffRates.id));
+  const free = new Set(stored.map((r) => r.id));
+  const claim = (id: string | undefined) => (id && free.delete(id) ? id : undefined);
+  const byName = rates.map((r) => claim(stored.find((s) => free.has(s.id) && s.label.toLowerCase() === r.label.toLowerCase())?.id));
+  const ids = byName.map((id) => id ?? claim([...free][0]) ?? null);
+  const rows = rates.map((r, i) => ({ id: ids[i] ?? randomUUID(), tariffId, ...r, days: r.days.join(",") }));
+  for (const [i, row] of rows.entries()) if (ids[i]) await tx.update(tariffRates).set(row).where(eq(tariffRates.id, row.id));
+  const added = rows.filter((_, i) => !ids[i]);
+  if (added.length) await tx.insert(tariffRates).values(added);
+  if (free.size) await tx.delete(tariffRates).where(inArray(tariffRates.id, [...free]));
 }
 
 function tariffRow(input: TariffInput) {

@@ -114,6 +114,13 @@ describe("a tariff change", () => {
     expect(tuesday.cost).toBeCloseTo((4 * 0.3 + 4 * 0.15) * 1.05, 9);
     expect(tuesday.total).toBeCloseTo(1.89 + 0.4 * 1.05, 9);
 
+    // Rates saved in another order keep their ids by name.
+    const idsByLabel = async () => Object.fromEntries((await db.select().from(tariffRates).where(eq(tariffRates.tariffId, touId))).map((r) => [r.label, r.id]));
+    const touRates = await idsByLabel();
+    const reordered = await put(tariffRoute.PUT, { siteId, tariffId: touId }, { ...timeOfUse, rates: [...timeOfUse.rates].reverse() });
+    expect(reordered.status).toBe(200);
+    expect(await idsByLabel()).toEqual(touRates);
+
     // Removing the second tariff leaves Tuesday's heating without a price.
     const removed = await call(tariffRoute.DELETE, { method: "DELETE", path: "/x", params: { siteId, tariffId: touId }, cookie: owner.cookie });
     expect(removed.status).toBe(200);
@@ -130,6 +137,7 @@ describe("a tariff change", () => {
       ["tariff.create", flatId],
       ["tariff.update", flatId],
       ["tariff.create", touId],
+      ["tariff.update", touId],
       ["tariff.delete", touId],
     ]);
     expect(trail[1]!.before).toMatchObject({ name: "Spring flat", validUntil: null });
