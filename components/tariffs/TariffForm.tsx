@@ -101,7 +101,7 @@ export function TariffForm({ siteId, currency, tariffId, initial, onSaved, onCan
         <div className="grid gap-2 sm:grid-cols-2">
           {TARIFF_KINDS.map((k) => (
             <label key={k} className="flex min-h-11 cursor-pointer items-center gap-3 rounded-lg border border-frost-300 bg-white px-3 has-[:checked]:border-leaf-600 has-[:checked]:bg-leaf-50">
-              <input type="radio" value={k} checked={kind === k} onChange={() => chooseKind(k)} className="size-5 accent-leaf-700" />
+              <input type="radio" name="tariff-kind" value={k} checked={kind === k} onChange={() => chooseKind(k)} className="size-5 accent-leaf-700" />
               <span className="text-sm text-frost-900">
                 <span className="font-medium">{TARIFF_KIND_LABELS[k]}</span>
                 <span className="block text-xs text-frost-600">{k === "flat" ? "One price for every kWh" : "Prices by time of day and weekday"}</span>
