@@ -105,15 +105,18 @@ function tariffRow(input: TariffInput) {
 /**
  * Makes the roll-up of the days a change touches again, after its transaction has
  * committed (the roll-up is kept per tariff rate). A failure leaves the change in place
- * and is reported, as `npm run energy:rebuild` can still repair the roll-up.
+ * and is reported: a rebuild of the roll-up from the log (rebuildEnergyDays) repairs it.
  */
 async function refreshAfter(siteId: string, before: Validity | null, after: Validity | null): Promise<boolean> {
   try {
     const [site] = await getDb().select({ zone: sites.timeZone }).from(sites).where(eq(sites.id, siteId));
     const instants: number[] = [];
     for (const table of ["switch_events", "meter_samples"]) {
+      // Per plug, so each end is one look-up in the (plug_id, at) index, however long the log.
       const [[span]] = (await getPool().query(
-        `SELECT MIN(e.at) AS first_at, MAX(e.at) AS last_at FROM ${table} e JOIN plugs p ON p.id = e.plug_id WHERE p.site_id = ?`,
+        `SELECT MIN(first_at) AS first_at, MAX(last_at) AS last_at FROM (
+           SELECT (SELECT MIN(at) FROM ${table} WHERE plug_id = p.id) AS first_at, (SELECT MAX(at) FROM ${table} WHERE plug_id = p.id) AS last_at
+             FROM plugs p WHERE p.site_id = ?) ends`,
         [siteId],
       )) as unknown as [{ first_at: Date | null; last_at: Date | null }[]];
       if (span?.first_at && span.last_at) instants.push(span.first_at.getTime(), span.last_at.getTime());
