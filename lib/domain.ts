@@ -131,6 +131,7 @@ export const AUDIT_ENTITY_LABELS: Record<string, string> = {
   member: "Member",
   invitation: "Invitation",
   tariff: "Tariff",
+  bill: "Bill",
   settings: "Personal settings",
 };
 
@@ -164,6 +165,12 @@ export const AUDIT_ACTION_LABELS: Record<string, string> = {
   "invitation.create": "Invited someone",
   "invitation.resend": "Sent an invitation again",
   "invitation.withdraw": "Withdrew an invitation",
+  "tariff.create": "Added a tariff",
+  "tariff.update": "Changed a tariff",
+  "tariff.delete": "Removed a tariff",
+  "bill.create": "Entered a bill",
+  "bill.update": "Changed a bill",
+  "bill.delete": "Removed a bill",
 };
 
 /** Names of changed fields on the activity page; others are spelled out from their key. */
@@ -182,6 +189,26 @@ export const AUDIT_FIELD_LABELS: Record<string, string> = {
   applianceWatts: "Appliance (W)",
   ratedCurrentA: "Plug rating (A)",
   expiresAt: "Expires",
+  kind: "Kind",
+  validFrom: "Valid from",
+  validUntil: "Valid until",
+  standingChargePerDay: "Standing charge per day",
+  taxPercent: "Tax (%)",
+  rates: "Unit rates",
+  startsOn: "From",
+  endsOn: "To",
+  label: "Label",
+  billedKwh: "Billed kWh",
+  billedAmount: "Billed amount",
+};
+
+/** How a tariff prices energy: one unit rate all week, or rates by weekday and time of day. */
+export const TARIFF_KINDS = ["flat", "time_of_use"] as const;
+export type TariffKind = (typeof TARIFF_KINDS)[number];
+
+export const TARIFF_KIND_LABELS: Record<TariffKind, string> = {
+  flat: "Flat rate",
+  time_of_use: "Time of use",
 };
 
 /** Where a sensor hangs: in its house, or outside (the site's outside temperature). */

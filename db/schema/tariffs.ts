@@ -1,8 +1,7 @@
 import { date, decimal, index, mysqlEnum, mysqlTable, time, uniqueIndex, varchar } from "drizzle-orm/mysql-core";
 import { createdAt, id, ref, updatedAt } from "./columns";
+import { TARIFF_KINDS } from "@/lib/domain";
 import { sites } from "./sites";
-
-export const TARIFF_KINDS = ["flat", "time_of_use"] as const;
 
 /** An electricity tariff: a standing charge per day and one or more unit rates. */
 export const tariffs = mysqlTable(

@@ -100,7 +100,7 @@ export function tariffProblems(tariff: Pick<Tariff, "kind" | "rates">): string[]
 }
 
 /** Each rate's claim on a day, in order of start; claims may overlap or leave gaps. */
-function claimsOfDay(rates: readonly TariffRate[], weekday: number) {
+export function claimsOfDay(rates: readonly TariffRate[], weekday: number) {
   const today = WEEKDAY_CODES[weekday - 1]!;
   const yesterday = WEEKDAY_CODES[(weekday + 5) % 7]!;
   const claims: (RatePiece & { label: string })[] = [];
