@@ -4,7 +4,7 @@
 import { createHash } from "node:crypto";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { inArray } from "drizzle-orm";
+import { eq, inArray } from "drizzle-orm";
 import type { MySqlColumn } from "drizzle-orm/mysql-core";
 import { hashPassword } from "better-auth/crypto";
 import { connect, type Database } from "./client";
@@ -302,7 +302,11 @@ export async function seedDemo(db: Database): Promise<SeedSummary> {
       ),
     );
 
-    created.tariffs = await insertMissing(t, tariffs, tariffs.id, [
+    // The owner's tariffs and bills are theirs to change: the demo's are added to a site
+    // that has none, never put back once removed (a removed tariff could overlap a new one).
+    const [hasTariff] = await t.select({ id: tariffs.id }).from(tariffs).where(eq(tariffs.siteId, site)).limit(1);
+    const [hasBill] = await t.select({ id: billPeriods.id }).from(billPeriods).where(eq(billPeriods.siteId, site)).limit(1);
+    created.tariffs = hasTariff ? 0 : await insertMissing(t, tariffs, tariffs.id, [
       {
         id: tariffId,
         siteId: site,
@@ -313,11 +317,11 @@ export async function seedDemo(db: Database): Promise<SeedSummary> {
         ...stamps,
       },
     ]);
-    created.tariffRates = await insertMissing(t, tariffRates, tariffRates.id, [
+    created.tariffRates = hasTariff ? 0 : await insertMissing(t, tariffRates, tariffRates.id, [
       { id: demoId("rate:night"), tariffId, label: "Night", startsAt: "00:30:00", endsAt: "07:30:00", pricePerKwh: 0.135 },
       { id: demoId("rate:day"), tariffId, label: "Day", startsAt: "07:30:00", endsAt: "00:30:00", pricePerKwh: 0.285 },
     ]);
-    created.billPeriods = await insertMissing(t, billPeriods, billPeriods.id, [
+    created.billPeriods = hasBill ? 0 : await insertMissing(t, billPeriods, billPeriods.id, [
       { id: demoId("bill:2026-q3"), siteId: site, startsOn: "2026-09-01", endsOn: "2026-11-30", label: "Autumn 2026", createdAt: SEEDED_AT },
       { id: demoId("bill:2026-q4"), siteId: site, startsOn: "2026-12-01", endsOn: "2027-02-28", label: "Winter 2026–27", createdAt: SEEDED_AT },
     ]);

@@ -2,8 +2,7 @@
 // inclusive), what it says in kWh and money (tax included) and an optional label.
 // The CSV upload checks each row with the same schema (lib/bills/csv.ts).
 import { z } from "zod";
-import { recordId } from "./common";
-import { localDate } from "./schedule";
+import { localDate, recordId } from "./common";
 import { siteParams } from "./site";
 
 export const billParams = siteParams.extend({ billId: recordId("bill") });

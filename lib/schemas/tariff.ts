@@ -8,8 +8,7 @@ import { z } from "zod";
 import { tariffProblems } from "@/lib/energy/tariff";
 import { TARIFF_KIND_LABELS, TARIFF_KINDS } from "@/lib/domain";
 import { WEEKDAYS } from "@/lib/schedules/week";
-import { line, recordId } from "./common";
-import { localDate } from "./schedule";
+import { line, localDate, recordId } from "./common";
 import { siteParams } from "./site";
 
 export const tariffParams = siteParams.extend({ tariffId: recordId("tariff") });
