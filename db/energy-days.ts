@@ -8,6 +8,7 @@
 // the web app refreshes a site's days when its tariffs change; `npm run energy:rebuild`
 // makes everything again from the log.
 import type mysql from "mysql2/promise";
+import type { Connection as CoreConnection } from "mysql2";
 import type { Database } from "@/db/client";
 import { buildSlices, dayOf, dayStartMs, nextDay, type Slice } from "@/lib/energy/calendar";
 import { rollupCells, type EnergyCell, type LoggedSwitch, type MeterSample } from "@/lib/energy/runtime";
@@ -274,9 +275,51 @@ export async function energyRollupMissing(db: Database): Promise<boolean> {
 
 export type RebuildProgress = { plugs: number; of: number; switches: number; cells: number };
 
+/** A plug's log as compact columns while a whole site's log is read. */
+type LogColumns = { atMs: number[]; id: number[]; flags: number[]; watts: (number | null)[] };
+
+const TO_ON = 1;
+const WITHDRAWN = 2;
+
 /**
- * Makes the whole roll-up of these sites (all when none named) again from the log: each
- * plug's days from its first switch or sample to its last. Returns what it read and wrote.
+ * The logs of these plugs, each in time order. A site that holds much of the table is
+ * read in one pass in primary-key order (sequential reads); a small one through the
+ * (plug_id, at) index. Rows stream in and are kept as columns, not objects.
+ */
+async function readLogs(conn: Conn, plugIds: readonly string[]): Promise<Map<string, LoggedSwitch[]>> {
+  const columns = new Map<string, LogColumns>(plugIds.map((id) => [id, { atMs: [], id: [], flags: [], watts: [] }]));
+  const [[mine]] = (await conn.query("SELECT COUNT(*) AS n FROM switch_events WHERE plug_id IN (?)", [plugIds])) as unknown as [{ n: number }[]];
+  const [[table]] = (await conn.query("SELECT COALESCE(MAX(TABLE_ROWS), 0) AS n FROM information_schema.TABLES WHERE TABLE_SCHEMA = DATABASE() AND TABLE_NAME = 'switch_events'")) as unknown as [
+    { n: number }[],
+  ];
+  const scan = Number(mine?.n) > 0.1 * Number(table?.n);
+  const sql = `SELECT plug_id, id, TIMESTAMPDIFF(MICROSECOND, '1970-01-01 00:00:00', at) DIV 1000, to_on, rated_watts, withdrawn_at IS NOT NULL
+                 FROM switch_events ${scan ? "FORCE INDEX (PRIMARY)" : ""} WHERE plug_id IN (?)`;
+  const core = conn.connection as unknown as CoreConnection;
+  const stream = core.query({ sql, values: [plugIds], rowsAsArray: true }).stream();
+  for await (const row of stream as AsyncIterable<[string, number, number, number, number | null, number]>) {
+    const c = columns.get(row[0])!;
+    c.id.push(Number(row[1]));
+    c.atMs.push(Number(row[2]));
+    c.flags.push((row[3] ? TO_ON : 0) | (row[5] ? WITHDRAWN : 0));
+    c.watts.push(row[4]);
+  }
+  const logs = new Map<string, LoggedSwitch[]>();
+  for (const [plugId, c] of columns) {
+    const order = c.atMs.map((_, i) => i).sort((a, b) => c.atMs[a]! - c.atMs[b]! || c.id[a]! - c.id[b]!);
+    logs.set(
+      plugId,
+      order.map((i) => ({ atMs: c.atMs[i]!, toOn: (c.flags[i]! & TO_ON) !== 0, ratedWatts: c.watts[i]!, withdrawn: (c.flags[i]! & WITHDRAWN) !== 0 })),
+    );
+    columns.delete(plugId);
+  }
+  return logs;
+}
+
+/**
+ * Makes the whole roll-up of these sites (all when none named) again from the log, one
+ * site at a time with every one of its plugs' locks held: each plug's days from its
+ * first switch or sample to its last. Returns what it read and wrote.
  */
 export async function rebuildEnergyDays(
   db: Database,
@@ -286,34 +329,46 @@ export async function rebuildEnergyDays(
   const ids = await rows<{ id: string }>(pool, siteIds?.length ? "SELECT id FROM plugs WHERE site_id IN (?)" : "SELECT id FROM plugs", siteIds?.length ? [siteIds] : []);
   const plugList = await plugsByIds(pool, ids.map((p) => p.id));
   const progress: RebuildProgress = { plugs: 0, of: plugList.length, switches: 0, cells: 0 };
-  const sliceCache = new Map<string, Slice[]>();
-  for (const plug of plugList) {
-    await withPlugLocks(pool, [plug.id], async (conn) => {
-      const tariffs = await loadTariffs(conn, plug.siteId);
-      const log = (await rows<SwitchRow>(conn, `SELECT ${SWITCH_COLUMNS} FROM switch_events WHERE plug_id = ? ORDER BY at, id`, [plug.id])).map(toSwitch);
-      const samples = plug.metersEnergy
-        ? (await rows<{ at: Date; watt_hours: number }>(conn, "SELECT at, watt_hours FROM meter_samples WHERE plug_id = ? ORDER BY at", [plug.id])).map((r) => ({
-            atMs: r.at.getTime(),
-            wattHours: Number(r.watt_hours),
-          }))
-        : null;
-      await conn.query("DELETE FROM energy_days WHERE plug_id = ?", [plug.id]);
-      const ends = [log[0]?.atMs, log.at(-1)?.atMs, samples?.[0]?.atMs, samples?.at(-1)?.atMs].filter((t): t is number => t !== undefined);
-      if (ends.length) {
-        const fromDay = dayOf(Math.min(...ends), plug.zone);
-        const toDay = dayOf(Math.max(...ends), plug.zone);
-        // Plugs of a site mostly share their first and last days and tariffs: slices are made once.
-        const sliceKey = JSON.stringify([plug.zone, fromDay, toDay, tariffs]);
-        let slices = sliceCache.get(sliceKey);
-        if (!slices) sliceCache.set(sliceKey, (slices = buildSlices({ zone: plug.zone, fromDay, toDay, tariffs })));
-        const cells = rollupCells(plug, slices, log, samples);
-        await writeCells(conn, [{ plugId: plug.id, fromDay, toDay, cells }]);
-        progress.cells += cells.length;
+  const bySite = new Map<string, PlugInfo[]>();
+  for (const p of plugList) bySite.set(p.siteId, [...(bySite.get(p.siteId) ?? []), p]);
+  for (const [siteId, sitePlugs] of bySite) {
+    const plugIds = sitePlugs.map((p) => p.id);
+    await withPlugLocks(pool, plugIds, async (conn) => {
+      const tariffs = await loadTariffs(conn, siteId);
+      const logs = await readLogs(conn, plugIds);
+      const metering = sitePlugs.filter((p) => p.metersEnergy).map((p) => p.id);
+      const samples = new Map<string, MeterSample[]>();
+      if (metering.length) {
+        for (const r of await rows<{ plug_id: string; at: Date; watt_hours: number }>(conn, "SELECT plug_id, at, watt_hours FROM meter_samples WHERE plug_id IN (?) ORDER BY plug_id, at", [metering])) {
+          samples.set(r.plug_id, [...(samples.get(r.plug_id) ?? []), { atMs: r.at.getTime(), wattHours: Number(r.watt_hours) }]);
+        }
       }
-      progress.switches += log.length;
+      await conn.query("DELETE FROM energy_days WHERE plug_id IN (?)", [plugIds]);
+      // Plugs of a site mostly share their first and last days: slices are made once.
+      const sliceCache = new Map<string, Slice[]>();
+      for (const plug of sitePlugs) {
+        const log = logs.get(plug.id) ?? [];
+        const plugSamples = plug.metersEnergy ? (samples.get(plug.id) ?? []) : null;
+        const ends = [log[0]?.atMs, log.at(-1)?.atMs, plugSamples?.[0]?.atMs, plugSamples?.at(-1)?.atMs].filter((t): t is number => t !== undefined);
+        if (ends.length) {
+          const fromDay = dayOf(Math.min(...ends), plug.zone);
+          const toDay = dayOf(Math.max(...ends), plug.zone);
+          const key = `${fromDay}|${toDay}`;
+          let slices = sliceCache.get(key);
+          if (!slices) sliceCache.set(key, (slices = buildSlices({ zone: plug.zone, fromDay, toDay, tariffs })));
+          const cells = rollupCells(plug, slices, log, plugSamples);
+          const all = cells.map((c) => [plug.id, c.day, c.rateKey, c.onMs, c.ratedWattMs, c.meteredWs]);
+          for (let i = 0; i < all.length; i += INSERT_CHUNK) {
+            await conn.query("INSERT INTO energy_days (plug_id, day, rate_key, on_ms, rated_watt_ms, metered_ws) VALUES ?", [all.slice(i, i + INSERT_CHUNK)]);
+          }
+          progress.cells += cells.length;
+        }
+        logs.delete(plug.id);
+        progress.switches += log.length;
+        progress.plugs++;
+        onProgress?.(progress);
+      }
     });
-    progress.plugs++;
-    onProgress?.(progress);
   }
   return progress;
 }

@@ -19,8 +19,7 @@ export type EnergyReportInput = {
   applianceKinds?: readonly ApplianceKind[];
 };
 
-const BUCKET_SQL: Record<ReportBucket, string> = {
-  day: "e.day",
+const BUCKET_SQL: Record<Exclude<ReportBucket, "day">, string> = {
   week: "GREATEST(e.day - INTERVAL WEEKDAY(e.day) DAY, ?)",
   month: "GREATEST(DATE_FORMAT(e.day, '%Y-%m-01'), ?)",
 };
@@ -71,26 +70,35 @@ function bucketed(day: string, bucket: ReportBucket, fromDay: string) {
 }
 
 async function rolledUp(pool: mysql.Pool, plugIds: string[], fromDay: string, toDay: string, bucket: ReportBucket): Promise<ReportCell[]> {
-  const bucketSql = BUCKET_SQL[bucket];
-  const values = bucket === "day" ? [plugIds, fromDay, toDay] : [fromDay, plugIds, fromDay, toDay];
-  const [rows] = await pool.query(
-    `SELECT e.plug_id, DATE_FORMAT(${bucketSql}, '%Y-%m-%d') AS bucket, e.rate_key,
-            SUM(e.on_ms) AS on_ms, SUM(e.rated_watt_ms) AS rated_watt_ms, SUM(e.metered_ws) AS metered_ws,
-            SUM(COALESCE(e.metered_ws, e.rated_watt_ms / 1000)) AS costed_ws
+  type Row = [string, string, string, number | string, number | string, number | null];
+  const toCell = ([plugId, day, rateKey, onMs, ratedWattMs, meteredWs]: Row, costedWs?: number | string): ReportCell => ({
+    plugId,
+    day,
+    rateKey,
+    onMs: Number(onMs),
+    ratedWattMs: Number(ratedWattMs),
+    meteredWs: meteredWs === null ? null : Number(meteredWs),
+    costedWs: costedWs === undefined ? (meteredWs === null ? Number(ratedWattMs) / 1000 : Number(meteredWs)) : Number(costedWs),
+  });
+  if (bucket === "day") {
+    // One roll-up row is one plug, day and rate already: read them as they are, in key order.
+    const [rows] = await pool.query({
+      sql: "SELECT plug_id, DATE_FORMAT(day, '%Y-%m-%d'), rate_key, on_ms, rated_watt_ms, metered_ws FROM energy_days WHERE plug_id IN (?) AND day BETWEEN ? AND ?",
+      values: [plugIds, fromDay, toDay],
+      rowsAsArray: true,
+    });
+    return (rows as Row[]).map((r) => toCell(r));
+  }
+  const [rows] = await pool.query({
+    sql: `SELECT e.plug_id, DATE_FORMAT(${BUCKET_SQL[bucket]}, '%Y-%m-%d') AS bucket, e.rate_key,
+            SUM(e.on_ms), SUM(e.rated_watt_ms), SUM(e.metered_ws), SUM(COALESCE(e.metered_ws, e.rated_watt_ms / 1000))
        FROM energy_days e
       WHERE e.plug_id IN (?) AND e.day BETWEEN ? AND ?
       GROUP BY e.plug_id, bucket, e.rate_key`,
-    values,
-  );
-  return (rows as { plug_id: string; bucket: string; rate_key: string; on_ms: string; rated_watt_ms: string; metered_ws: number | null; costed_ws: string }[]).map((r) => ({
-    plugId: r.plug_id,
-    day: r.bucket,
-    rateKey: r.rate_key,
-    onMs: Number(r.on_ms),
-    ratedWattMs: Number(r.rated_watt_ms),
-    meteredWs: r.metered_ws === null ? null : Number(r.metered_ws),
-    costedWs: Number(r.costed_ws),
-  }));
+    values: [fromDay, plugIds, fromDay, toDay],
+    rowsAsArray: true,
+  });
+  return (rows as [...Row, number | string][]).map((r) => toCell([r[0], r[1], r[2], r[3], r[4], r[5]], r[6]));
 }
 
 /**

@@ -132,6 +132,22 @@ describe("the energy report", () => {
     expect(metered.cost).toBeCloseTo(3 * 0.25, 9);
   });
 
+  it("gives the same totals by day, by week and by month", async () => {
+    const [byDay, byWeek, byMonth] = await Promise.all(
+      (["day", "week", "month"] as const).map((bucket) => getEnergyReport({ siteId, fromDay: "2026-03-04", toDay: "2026-04-20", bucket, now: local("2026-06-01T00:00") })),
+    );
+    for (const other of [byWeek!, byMonth!]) {
+      expect(other.site.onHours).toBeCloseTo(byDay!.site.onHours, 9);
+      expect(other.site.total!).toBeCloseTo(byDay!.site.total!, 9);
+      expect(other.series.reduce((s, b) => s + b.onHours, 0)).toBeCloseTo(byDay!.site.onHours, 9);
+    }
+    expect(byWeek!.series[0]).toMatchObject({ fromDay: "2026-03-04", toDay: "2026-03-08" });
+    expect(byMonth!.series.map((b) => [b.key, b.fromDay])).toEqual([
+      ["2026-03-01", "2026-03-04"],
+      ["2026-04-01", "2026-04-01"],
+    ]);
+  });
+
   it("a 23-hour day: a heater on all of the spring-forward day runs 23.0 h (IANA rules for Europe/London, 29 March 2026)", async () => {
     await logSwitch(heaterId, "2026-03-28T20:00", true, 2000);
     await logSwitch(heaterId, "2026-03-30T04:00", false, 2000);
