@@ -92,12 +92,19 @@ export function buildReport(input: {
   const rates = new Map<string, Rate>();
   for (const tariff of tariffs) for (const r of tariff.rates) rates.set(r.id, { tariff, price: r.pricePerKwh, label: r.label });
   const plugById = new Map(input.plugs.map((p) => [p.id, p]));
+  // A year's report has tens of thousands of cells over a few hundred days.
+  const bucketKeys = new Map<string, string>();
+  const bucketKey = (day: string) => {
+    let key = bucketKeys.get(day);
+    if (key === undefined) bucketKeys.set(day, (key = bucketOf(day, bucket)));
+    return key;
+  };
 
   const plugFigures = new Map<string, Figures>();
   const rateTotals = new Map<string, { costedKwh: number; cost: number }>();
   const buckets = new Map<string, { total: Figures; standingCharge: number; byHouse: Record<string, Figures>; byPlug: Record<string, Figures> }>();
   for (const day of daysFromTo(fromDay, toDay)) {
-    const key = bucketOf(day, bucket);
+    const key = bucketKey(day);
     if (!buckets.has(key)) buckets.set(key, { total: empty(), standingCharge: 0, byHouse: {}, byPlug: {} });
   }
 
@@ -118,7 +125,7 @@ export function buildReport(input: {
       t.cost += cost!;
       rateTotals.set(cell.rateKey, t);
     }
-    const b = buckets.get(bucketOf(cell.day, bucket))!;
+    const b = buckets.get(bucketKey(cell.day))!;
     add(b.total, f);
     add((b.byHouse[plug.houseId] ??= empty()), f);
     add((b.byPlug[plug.id] ??= empty()), f);
@@ -150,7 +157,7 @@ export function buildReport(input: {
     } else tariffDays.set(tariff.id, { tariff, fromDay: day, toDay: day, days: 1 });
     const charge = tariff.standingChargePerDay * (1 + tariff.taxPercent / 100);
     standingCharge += charge;
-    buckets.get(bucketOf(day, bucket))!.standingCharge += charge;
+    buckets.get(bucketKey(day))!.standingCharge += charge;
     standingTax += tariff.standingChargePerDay * (tariff.taxPercent / 100);
   }
 
