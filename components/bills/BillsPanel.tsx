@@ -1,5 +1,6 @@
 "use client";
 
+import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { ConfirmButton } from "@/components/setup/ConfirmButton";
@@ -24,12 +25,22 @@ export type BillView = {
   check: BillCheck;
 };
 
-type Props = { siteId: string; currency: string; bills: BillView[]; canEdit: boolean; today: string; tariffsHref: string };
+type Props = {
+  siteId: string;
+  currency: string;
+  bills: BillView[];
+  canEdit: boolean;
+  /** May take the printable report (the owner and the viewer). */
+  canExport: boolean;
+  today: string;
+  tariffsHref: string;
+  reportsHref: string;
+};
 
 type Open = { kind: "new" } | { kind: "upload" } | { kind: "edit"; id: string } | null;
 
 /** Each bill beside heating's computed share; the owner enters bills one by one or from a CSV file. */
-export function BillsPanel({ siteId, currency, bills, canEdit, today, tariffsHref }: Props) {
+export function BillsPanel({ siteId, currency, bills, canEdit, canExport, today, tariffsHref, reportsHref }: Props) {
   const router = useRouter();
   const [open, setOpen] = useState<Open>(null);
   const [notice, setNotice] = useState<string | null>(null);
@@ -101,6 +112,20 @@ export function BillsPanel({ siteId, currency, bills, canEdit, today, tariffsHre
             ) : (
               <BillComparison bill={bill} currency={currency} canEdit={canEdit} tariffsHref={tariffsHref} />
             )}
+            <nav aria-label={`This bill's period`} className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
+              <Link className="font-medium text-leaf-800 underline underline-offset-2" href={`${reportsHref}?from=${bill.startsOn}&to=${bill.endsOn}`}>
+                The report for these dates
+              </Link>
+              {canExport ? (
+                <a
+                  className="font-medium text-leaf-800 underline underline-offset-2"
+                  href={`/api/sites/${siteId}/reports/energy/pdf?from=${bill.startsOn}&to=${bill.endsOn}&by=${bill.days <= 62 ? "day" : "week"}`}
+                  download
+                >
+                  Printable report (PDF)
+                </a>
+              ) : null}
+            </nav>
             {canEdit && !(open?.kind === "edit" && open.id === bill.id) ? (
               <div className="flex flex-wrap gap-2 border-t border-frost-100 pt-3">
                 <Button variant={bill.billedKwh === null ? "primary" : "secondary"} onClick={() => setOpen({ kind: "edit", id: bill.id })} disabled={open !== null}>

@@ -25,8 +25,10 @@ export default async function BillsPage({ params }: Props) {
         currency={site.currency}
         bills={bills}
         canEdit={canEdit}
+        canExport={can(site.role, "reports.export")}
         today={siteToday(site.timeZone)}
         tariffsHref={`/sites/${site.slug}/reports/tariffs`}
+        reportsHref={`/sites/${site.slug}/reports`}
       />
     </div>
   );
