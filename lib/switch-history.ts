@@ -101,11 +101,20 @@ type LocalQuarter = { prefix: string; minuteShift: number; suffix: string };
 export function utcTextTimestampFormatter(timeZone: string): (utc: string) => string {
   const quarters = new Map<string, LocalQuarter | null>();
   const offsetAt = (ms: number) => DateTime.fromMillis(ms, { zone: timeZone }).offset;
+  // Luxon's offset costs microseconds: an hour whose two ends agree is looked up once for its four quarters.
+  let hourMs = NaN;
+  let hourOffset: number | null = null;
   const digit = (text: string, i: number) => text.charCodeAt(i) - 48;
   const quarterOf = (utc: string, quarter: number): LocalQuarter | null => {
     const startMs = Date.UTC(+utc.slice(0, 4), +utc.slice(5, 7) - 1, +utc.slice(8, 10), +utc.slice(11, 13), quarter);
-    const offset = offsetAt(startMs);
-    if (offset !== offsetAt(startMs + QUARTER_HOUR_MS - 1) || offset % 15 !== 0) return null;
+    const hour = startMs - quarter * 60_000;
+    if (hour !== hourMs) {
+      const first = offsetAt(hour);
+      hourMs = hour;
+      hourOffset = first === offsetAt(hour + 4 * QUARTER_HOUR_MS - 1) ? first : null;
+    }
+    const offset = hourOffset ?? offsetAt(startMs);
+    if ((hourOffset === null && offset !== offsetAt(startMs + QUARTER_HOUR_MS - 1)) || offset % 15 !== 0) return null;
     const local = new Date(startMs + offset * 60_000);
     const abs = Math.abs(offset);
     return {
