@@ -1,5 +1,4 @@
 import "server-only";
-import { Readable } from "node:stream";
 import type { Connection as CoreConnection } from "mysql2";
 import { getPool } from "@/db/client";
 import { localDayRange } from "@/lib/audit";
@@ -272,65 +271,97 @@ export type SwitchStreamRow = [
   ratedWatts: number | null,
 ];
 
+export type SwitchRowHandlers = {
+  row: (row: SwitchStreamRow) => void;
+  /** Every row was given; the connection is back in the pool. */
+  end: () => void;
+  /** The query failed or its connection was lost; the connection is closed. */
+  error: (error: Error) => void;
+};
+
 export type SwitchHistoryStream = {
   /** The plugs the filter covers, by id: names are looked up here rather than joined per row. */
   plugs: ReadonlyMap<string, ScopePlug>;
-  /** Object mode, one SwitchStreamRow each, newest first; pausing it stops the server's socket. */
-  rows: Readable;
+  /** Where the rows go, newest first. The rows wait for the first resume(), so listen first. */
+  listen: (handlers: SwitchRowHandlers) => void;
+  /** Stops the rows: the driver stops reading the socket, and the server waits. */
+  pause: () => void;
+  resume: () => void;
   /**
-   * Gives the connection back: to the pool once every row was read; otherwise (an error,
-   * a reader gone) it is closed, as the server may still be sending the rest. Runs by
-   * itself at the end and on an error; a reader that stops early must call it.
+   * Stops for good (a reader gone): the connection is closed, as the server may still be
+   * sending the rest, and no handler is called again. Harmless after end or error.
    */
   close: () => void;
 };
 
-/** Rows a streamed read lets the driver hold before it pauses the socket. */
-const STREAM_BUFFER_ROWS = 2000;
-
 /**
  * Every switch the filter covers, newest first, as one query streamed from its own pool
- * connection (an export of millions: no round trip per batch, no Date per row). The
- * filter is checked before this returns, so bad input still throws while an error
- * answer can be sent.
+ * connection (an export of millions: no round trip per batch, no Date per row, no
+ * stream object per row). The filter is checked before this returns, so bad input still
+ * throws while an error answer can be sent.
  */
 export async function openSwitchHistoryStream({ siteId, timeZone, filter }: { siteId: string; timeZone: string; filter: SwitchFilter }): Promise<SwitchHistoryStream> {
   const scope = await resolveScope(siteId, filter, timeZone);
-  if (scope.plugIds.length === 0) return { plugs: scope.plugs, rows: Readable.from([]), close: () => {} };
+  if (scope.plugIds.length === 0) {
+    let handlers: SwitchRowHandlers | null = null;
+    return { plugs: scope.plugs, listen: (h) => void (handlers = h), pause: () => {}, resume: () => handlers?.end(), close: () => {} };
+  }
   const statement = indexQuery(scope, null, null, streamShape(scope));
   const connection = await getPool().getConnection();
   // The promise wrapper's `connection` is the callback-style one (its typings say otherwise).
   const core = connection.connection as unknown as CoreConnection;
-  let rows: Readable;
-  try {
-    rows = core.query({ sql: statement.sql, values: statement.values, rowsAsArray: true, dateStrings: true }).stream({ highWaterMark: STREAM_BUFFER_ROWS });
-  } catch (error) {
-    connection.destroy();
-    throw error;
-  }
-  // A lost connection is told to the connection, not to a query read as a stream: without
-  // this the rows would neither end nor fail.
-  const lost = (error: Error) => rows.destroy(error);
-  core.once("error", lost);
-  let open = true;
+  let state: "reading" | "ended" | "closed" = "reading";
+  let handlers: SwitchRowHandlers | null = null;
   const close = () => {
-    if (!open) return;
-    open = false;
-    core.removeListener("error", lost);
-    if (rows.readableEnded) connection.release();
+    if (state === "closed") return;
+    const ended = state === "ended";
+    state = "closed";
+    core.removeListener("error", fail);
+    if (ended) connection.release();
     else connection.destroy();
   };
-  // mysql2's stream also says "end" when it is destroyed early: readableEnded tells the two apart.
-  rows.once("end", close);
-  rows.once("error", close);
-  return { plugs: scope.plugs, rows, close };
+  function fail(error: Error) {
+    if (state !== "reading") return;
+    close();
+    handlers?.error(error);
+  }
+  const query = core.query({ sql: statement.sql, values: statement.values, rowsAsArray: true, dateStrings: true });
+  // Paused only once the query is sent: mysql2 would hold back the sending itself otherwise.
+  core.pause();
+  query.on("result", (row) => {
+    if (state === "reading") handlers?.row(row as unknown as SwitchStreamRow);
+  });
+  query.on("error", fail);
+  query.on("end", () => {
+    if (state !== "reading") return;
+    state = "ended";
+    close();
+    handlers?.end();
+  });
+  // A lost connection is told to the connection, not to a query without a callback.
+  core.once("error", fail);
+  return {
+    plugs: scope.plugs,
+    listen: (h) => void (handlers = h),
+    pause: () => core.pause(),
+    resume: () => {
+      if (state === "reading") core.resume();
+    },
+    close,
+  };
 }
 
 const instant = (utc: string | null) => (utc === null ? null : new Date(`${utc.slice(0, 10)}T${utc.slice(11)}Z`));
 
+function typedRow(r: SwitchStreamRow, plug: ScopePlug): SwitchHistoryRow {
+  const [id, at, plugId, fromOn, toOn, cause, readingTempC, readingAt, userId, userName, reason, commandId, ackAt, latencyMs, withdrawnAt, ratedWatts] = r;
+  const typed: RawRow = [id, instant(at)!, plugId, fromOn, toOn, cause, readingTempC, instant(readingAt), userId, userName, reason, commandId, instant(ackAt), latencyMs, instant(withdrawnAt), ratedWatts];
+  return toRow(typed, plug);
+}
+
 /**
  * Every switch the filter covers, newest first, as typed rows in batches of `batchSize`,
- * read through openSwitchHistoryStream: one batch in memory at a time.
+ * read through openSwitchHistoryStream: the rows wait while the caller works on a batch.
  */
 export async function* streamSwitchHistory({
   siteId,
@@ -344,18 +375,45 @@ export async function* streamSwitchHistory({
   batchSize?: number;
 }): AsyncGenerator<SwitchHistoryRow[]> {
   const stream = await openSwitchHistoryStream({ siteId, timeZone, filter });
+  const ready: SwitchHistoryRow[][] = [];
+  let batch: SwitchHistoryRow[] = [];
+  let ended = false;
+  let failure: Error | null = null;
+  let wake: (() => void) | null = null;
+  stream.listen({
+    row: (r) => {
+      batch.push(typedRow(r, stream.plugs.get(r[2])!));
+      if (batch.length < batchSize) return;
+      ready.push(batch);
+      batch = [];
+      stream.pause();
+      wake?.();
+    },
+    end: () => {
+      if (batch.length) ready.push(batch);
+      ended = true;
+      wake?.();
+    },
+    error: (error) => {
+      failure = error;
+      wake?.();
+    },
+  });
   try {
-    let batch: SwitchHistoryRow[] = [];
-    for await (const r of stream.rows as AsyncIterable<SwitchStreamRow>) {
-      const [id, at, plugId, fromOn, toOn, cause, readingTempC, readingAt, userId, userName, reason, commandId, ackAt, latencyMs, withdrawnAt, ratedWatts] = r;
-      const typed: RawRow = [id, instant(at)!, plugId, fromOn, toOn, cause, readingTempC, instant(readingAt), userId, userName, reason, commandId, instant(ackAt), latencyMs, instant(withdrawnAt), ratedWatts];
-      batch.push(toRow(typed, stream.plugs.get(plugId)!));
-      if (batch.length === batchSize) {
-        yield batch;
-        batch = [];
+    for (;;) {
+      const next = ready.shift();
+      if (next) {
+        yield next;
+        continue;
       }
+      if (failure) throw failure;
+      if (ended) return;
+      await new Promise<void>((resolve) => {
+        wake = resolve;
+        stream.resume();
+      });
+      wake = null;
     }
-    if (batch.length) yield batch;
   } finally {
     stream.close();
   }

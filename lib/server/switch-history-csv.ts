@@ -17,7 +17,7 @@ const CHUNK_ROWS = 1000;
  */
 export async function switchHistoryCsv(args: { siteId: string; timeZone: string; filter: SwitchFilter }): Promise<ReadableStream<Uint8Array>> {
   const source = await openSwitchHistoryStream(args);
-  const { rows, plugs } = source;
+  const { plugs } = source;
   const line = switchCsvLines(args.timeZone);
   const encoder = new TextEncoder();
   let text = "";
@@ -26,46 +26,45 @@ export async function switchHistoryCsv(args: { siteId: string; timeZone: string;
     start(controller) {
       const flush = () => {
         if (count === 0) return;
-        controller.enqueue(encoder.encode(text));
+        const chunk = text;
         text = "";
         count = 0;
-        if ((controller.desiredSize ?? 0) <= 0) rows.pause();
+        controller.enqueue(encoder.encode(chunk));
+        if ((controller.desiredSize ?? 0) <= 0) source.pause();
       };
       controller.enqueue(encoder.encode(switchCsvHead(args.timeZone)));
-      rows.pause();
-      rows.on("data", (r: SwitchStreamRow) => {
-        const plug = plugs.get(r[2])!;
-        const cause = r[5];
-        text += line({
-          at: r[1],
-          houseName: plug.houseName,
-          plugName: plug.name,
-          fromOn: r[3] === null ? null : Boolean(r[3]),
-          toOn: Boolean(r[4]),
-          cause,
-          status: switchStatus({ cause, withdrawnAt: r[14], ackAt: r[12] }),
-          readingTempC: r[6],
-          readingAt: r[7],
-          userName: r[9],
-          reason: r[10],
-          latencyMs: r[13],
-          commandId: r[11],
-        });
-        if (++count === CHUNK_ROWS) flush();
+      source.listen({
+        row: (r: SwitchStreamRow) => {
+          const plug = plugs.get(r[2])!;
+          const cause = r[5];
+          text += line({
+            at: r[1],
+            houseName: plug.houseName,
+            plugName: plug.name,
+            fromOn: r[3] === null ? null : Boolean(r[3]),
+            toOn: Boolean(r[4]),
+            cause,
+            status: switchStatus({ cause, withdrawnAt: r[14], ackAt: r[12] }),
+            readingTempC: r[6],
+            readingAt: r[7],
+            userName: r[9],
+            reason: r[10],
+            latencyMs: r[13],
+            commandId: r[11],
+          });
+          if (++count === CHUNK_ROWS) flush();
+        },
+        end: () => {
+          flush();
+          controller.close();
+        },
+        error: (error) => controller.error(error),
       });
-      rows.on("end", () => {
-        // mysql2's stream says "end" also when destroyed early (a cancel): only a real end closes.
-        if (!rows.readableEnded) return;
-        flush();
-        controller.close();
-      });
-      rows.on("error", (error) => controller.error(error));
     },
     pull() {
-      rows.resume();
+      source.resume();
     },
     cancel() {
-      rows.destroy();
       source.close();
     },
   });
