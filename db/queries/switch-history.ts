@@ -304,7 +304,12 @@ export async function openSwitchHistoryStream({ siteId, timeZone, filter }: { si
   const scope = await resolveScope(siteId, filter, timeZone);
   if (scope.plugIds.length === 0) {
     let handlers: SwitchRowHandlers | null = null;
-    return { plugs: scope.plugs, listen: (h) => void (handlers = h), pause: () => {}, resume: () => handlers?.end(), close: () => {} };
+    const end = () => {
+      const listening = handlers;
+      handlers = null;
+      listening?.end();
+    };
+    return { plugs: scope.plugs, listen: (h) => void (handlers = h), pause: () => {}, resume: end, close: () => void (handlers = null) };
   }
   const statement = indexQuery(scope, null, null, streamShape(scope));
   const connection = await getPool().getConnection();
