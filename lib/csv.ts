@@ -14,3 +14,15 @@ export function csvText(value: string | null | undefined): string {
 export function csvNumber(value: number | null | undefined, decimals: number): string {
   return value === null || value === undefined || !Number.isFinite(value) ? "" : value.toFixed(decimals);
 }
+
+const NEEDS_QUOTES = /[",\r\n]/;
+
+/** One CSV field: quoted (quotes doubled) only when it holds a quote, comma, CR or LF, as csv-stringify writes it. */
+export function csvCell(value: string): string {
+  return NEEDS_QUOTES.test(value) ? `"${value.replaceAll('"', '""')}"` : value;
+}
+
+/** One CSV record and its line end. */
+export function csvLine(fields: readonly string[]): string {
+  return fields.map(csvCell).join(",") + "\n";
+}

@@ -86,6 +86,66 @@ export function localTimestampFormatter(timeZone: string): (at: Date) => string 
   };
 }
 
+/** "2026-10-25T00:30:00.000Z" from the server's UTC text "2026-10-25 00:30:00.000". */
+export const isoFromUtcText = (utc: string) => `${utc.slice(0, 10)}T${utc.slice(11)}Z`;
+
+type LocalQuarter = { prefix: string; minuteShift: number; suffix: string };
+
+/**
+ * localTimestamp for instants given as the server's UTC text "YYYY-MM-DD HH:MM:SS.mmm"
+ * (an export streamed with no Date per row). Per quarter hour of that text, the local
+ * "YYYY-MM-DD HH:" and the offset are worked out once; each row then only shifts its
+ * minute. A quarter hour with a clock change inside it, or an offset that is not a
+ * whole number of quarter hours (old local mean times), is left to luxon.
+ */
+export function utcTextTimestampFormatter(timeZone: string): (utc: string) => string {
+  const quarters = new Map<string, LocalQuarter | null>();
+  const offsetAt = (ms: number) => DateTime.fromMillis(ms, { zone: timeZone }).offset;
+  // Luxon's offset costs microseconds: an hour whose two ends agree is looked up once for its four quarters.
+  let hourMs = NaN;
+  let hourOffset: number | null = null;
+  const digit = (text: string, i: number) => text.charCodeAt(i) - 48;
+  const quarterOf = (utc: string, quarter: number): LocalQuarter | null => {
+    const startMs = Date.UTC(+utc.slice(0, 4), +utc.slice(5, 7) - 1, +utc.slice(8, 10), +utc.slice(11, 13), quarter);
+    const hour = startMs - quarter * 60_000;
+    if (hour !== hourMs) {
+      const first = offsetAt(hour);
+      hourMs = hour;
+      hourOffset = first === offsetAt(hour + 4 * QUARTER_HOUR_MS - 1) ? first : null;
+    }
+    const offset = hourOffset ?? offsetAt(startMs);
+    if ((hourOffset === null && offset !== offsetAt(startMs + QUARTER_HOUR_MS - 1)) || offset % 15 !== 0) return null;
+    const local = new Date(startMs + offset * 60_000);
+    const abs = Math.abs(offset);
+    return {
+      prefix: `${pad(local.getUTCFullYear(), 4)}-${pad(local.getUTCMonth() + 1)}-${pad(local.getUTCDate())} ${pad(local.getUTCHours())}:`,
+      minuteShift: local.getUTCMinutes() - quarter,
+      suffix: ` ${offset < 0 ? "-" : "+"}${pad(Math.floor(abs / 60))}:${pad(abs % 60)}`,
+    };
+  };
+  // Rows come in time order, so the last quarter hour is usually the one asked for again.
+  let lastKey = "";
+  let last: LocalQuarter | null = null;
+  return (utc) => {
+    const minute = digit(utc, 14) * 10 + digit(utc, 15);
+    const quarter = minute - (minute % 15);
+    const key = utc.slice(0, 14) + quarter;
+    if (key !== lastKey) {
+      let found = quarters.get(key);
+      if (found === undefined) {
+        found = quarterOf(utc, quarter);
+        if (quarters.size > 10_000) quarters.clear();
+        quarters.set(key, found);
+      }
+      lastKey = key;
+      last = found;
+    }
+    if (last === null) return localTimestamp(new Date(isoFromUtcText(utc)), timeZone);
+    const localMinute = minute + last.minuteShift;
+    return `${last.prefix}${localMinute < 10 ? "0" : ""}${localMinute}${utc.slice(16, 19)}${last.suffix}`;
+  };
+}
+
 /** The export's file name: the site, the dates asked for (or "all"), and the day it was made. */
 export function exportFileName(slug: string, range: { from?: string; to?: string }, today: string): string {
   const dates = range.from || range.to ? `${range.from ?? "start"}-to-${range.to ?? today}` : `all-to-${today}`;
