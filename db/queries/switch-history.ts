@@ -322,8 +322,11 @@ export async function openSwitchHistoryStream({ siteId, timeZone, filter }: { si
     const ended = state === "ended";
     state = "closed";
     core.removeListener("error", fail);
-    if (ended) connection.release();
-    else connection.destroy();
+    // A connection goes back to the pool reading: a paused one would hang whoever takes it next.
+    if (ended) {
+      core.resume();
+      connection.release();
+    } else connection.destroy();
   };
   function fail(error: Error) {
     if (state !== "reading") return;
@@ -348,7 +351,10 @@ export async function openSwitchHistoryStream({ siteId, timeZone, filter }: { si
   return {
     plugs: scope.plugs,
     listen: (h) => void (handlers = h),
-    pause: () => core.pause(),
+    // Only while this query reads: after its end the connection is the pool's.
+    pause: () => {
+      if (state === "reading") core.pause();
+    },
     resume: () => {
       if (state === "reading") core.resume();
     },

@@ -10,7 +10,7 @@ import { getDb, getPool } from "@/db/client";
 import { houses, plugs, switchEvents, user } from "@/db/schema";
 import * as sitesRoute from "@/app/api/sites/route";
 import * as exportRoute from "@/app/api/sites/[siteId]/switches/export/route";
-import { getSwitchHistoryPage, type SwitchHistoryRow } from "@/db/queries/switch-history";
+import { getSwitchHistoryPage, openSwitchHistoryStream, type SwitchHistoryRow } from "@/db/queries/switch-history";
 import { switchCsvHeader, switchCsvRecords } from "@/lib/switch-history-csv";
 import { call, signUp, type Account } from "../support/http";
 
@@ -106,6 +106,22 @@ describe("the switch export's stream", () => {
     expect(rows).toHaveLength(ROWS);
     expect(written).toBe("\uFEFF" + stringify([switchCsvHeader(ZONE), ...rows.map(switchCsvRecords(ZONE))]));
     await expectPoolIdle();
+  });
+
+  it("leaves the pool's connections answering after an export whose reader held back at its end", async () => {
+    const stream = await openSwitchHistoryStream({ siteId, timeZone: ZONE, filter: {} });
+    const ended = new Promise<void>((resolve, reject) => stream.listen({ row: () => {}, end: resolve, error: reject }));
+    stream.resume();
+    await ended;
+    // A reader's backpressure can come after the last row: it must not reach the pooled connection.
+    stream.pause();
+    stream.close();
+    const answers = await Promise.all(
+      Array.from({ length: 3 }, () =>
+        Promise.race([getPool().query("SELECT 1 AS one"), new Promise((_, reject) => setTimeout(() => reject(new Error("a pooled connection did not answer in 3 s")), 3000))]),
+      ),
+    );
+    expect(answers).toHaveLength(3);
   });
 
   it("gives the connection back when the reader cancels part-way, however often", async () => {
