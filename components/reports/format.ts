@@ -1,14 +1,14 @@
-// How the report pages write figures: one place for hours, kWh, money and dates.
+// How the report pages write figures: hours, kWh and dates; money as the tariff pages write it.
+import { formatMoney, formatUnitPrice } from "@/lib/tariffs/money";
 
 export function reportFormat(currency: string) {
-  const money = new Intl.NumberFormat("en-GB", { style: "currency", currency, minimumFractionDigits: 2, maximumFractionDigits: 2 });
   const one = new Intl.NumberFormat("en-GB", { minimumFractionDigits: 1, maximumFractionDigits: 1 });
   const two = new Intl.NumberFormat("en-GB", { minimumFractionDigits: 2, maximumFractionDigits: 2 });
   return {
-    money: (v: number | null) => (v === null ? "–" : money.format(v)),
+    money: (v: number | null) => (v === null ? "–" : formatMoney(v, currency)),
     hours: (v: number) => `${one.format(v)} h`,
     kwh: (v: number | null) => (v === null ? "–" : `${two.format(v)} kWh`),
-    price: (v: number) => new Intl.NumberFormat("en-GB", { style: "currency", currency, minimumFractionDigits: 3, maximumFractionDigits: 4 }).format(v),
+    price: (v: number) => formatUnitPrice(v, currency),
   };
 }
 

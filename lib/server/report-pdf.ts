@@ -3,6 +3,7 @@
 // Helvetica: nothing is fetched or embedded.
 import PDFDocument from "pdfkit";
 import type { EnergyReport } from "@/lib/energy/report";
+import { formatMoney, formatUnitPrice } from "@/lib/tariffs/money";
 
 type PdfReport = EnergyReport & { siteName: string; zone: string; currency: string };
 
@@ -12,13 +13,12 @@ const BAR = "#3f7d4f";
 const RULE = "#c9d2cc";
 
 function formatters(currency: string) {
-  const money = new Intl.NumberFormat("en-GB", { style: "currency", currency, minimumFractionDigits: 2, maximumFractionDigits: 2 });
   const n = (digits: number) => new Intl.NumberFormat("en-GB", { minimumFractionDigits: digits, maximumFractionDigits: digits });
   return {
-    money: (v: number | null) => (v === null ? "–" : money.format(v)),
+    money: (v: number | null) => (v === null ? "–" : formatMoney(v, currency)),
     hours: (v: number) => n(1).format(v),
     kwh: (v: number | null) => (v === null ? "–" : n(2).format(v)),
-    price: (v: number) => new Intl.NumberFormat("en-GB", { style: "currency", currency, minimumFractionDigits: 3, maximumFractionDigits: 4 }).format(v),
+    price: (v: number) => formatUnitPrice(v, currency),
   };
 }
 
