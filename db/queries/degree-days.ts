@@ -119,7 +119,8 @@ export async function getDegreeDayReport({ siteId, fromDay, toDay }: { siteId: s
         insideMeanC: inside?.meanC ?? null,
         degreeDays: outside ? degreeDays(site.method, outside) : null,
         insideOutside: outside && inside ? insideOutsideDegreeDays(inside.meanC, outside.meanC) : null,
-        heatingKwh: heaters > 0 ? heatingKwhOf(kwhByDay.get(w.day)?.[house.id]) : null,
+        // The report's costed kWh: metered where the meter was heard, rated elsewhere.
+        heatingKwh: heaters > 0 ? (kwhByDay.get(w.day)?.[house.id]?.costedKwh ?? 0) : null,
       };
     });
     const use = days.map((d) => ({ day: d.day, kwh: d.heatingKwh, degreeDays: d.degreeDays }));
@@ -150,17 +151,6 @@ export async function getDegreeDayReport({ siteId, fromDay, toDay }: { siteId: s
     outsideSensors: outsideSensors.map(({ id, name, houseId }) => ({ id, name, houseId })),
     houses: reportHouses,
   };
-}
-
-/**
- * The kWh the report costs (metered where the plug meters), except where the heaters ran
- * by the switch log but their meters gave nothing: that is a meter that did not report,
- * not a day without heating, so the rated figure stands in.
- */
-function heatingKwhOf(figures: { costedKwh: number; ratedKwh: number; meteredKwh: number | null } | undefined): number {
-  if (!figures) return 0;
-  if (figures.meteredKwh === 0 && figures.ratedKwh > 0) return figures.ratedKwh;
-  return figures.costedKwh;
 }
 
 function expectedOf(house: typeof houses.$inferSelect): number | null {
