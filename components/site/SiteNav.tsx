@@ -2,6 +2,7 @@
 
 import Link from "next/link";
 import { usePathname } from "next/navigation";
+import { useEffect, useRef } from "react";
 import { can, type Action, type Role } from "@/lib/permissions";
 
 /** The sections of a site, each shown to the roles that may open it. */
@@ -18,11 +19,16 @@ const SECTIONS: { path: string; label: string; action: Action }[] = [
 
 export function SiteNav({ slug, role }: { slug: string; role: Role }) {
   const pathname = usePathname();
+  const list = useRef<HTMLUListElement>(null);
+  // On a phone the sections scroll sideways: keep the one open in sight.
+  useEffect(() => {
+    list.current?.querySelector('[aria-current="page"]')?.scrollIntoView?.({ block: "nearest", inline: "nearest" });
+  }, [pathname]);
   const base = `/sites/${slug}`;
   const links = SECTIONS.filter((s) => can(role, s.action)).map((s) => ({ href: base + s.path, label: s.label }));
   return (
     <nav aria-label="Site sections" className="mx-auto max-w-5xl px-4">
-      <ul className="-mb-px flex gap-1 overflow-x-auto">
+      <ul ref={list} className="-mb-px flex gap-1 overflow-x-auto">
         {links.map((link) => {
           const active = link.href === base ? pathname === base : pathname.startsWith(link.href);
           return (
