@@ -91,17 +91,55 @@ export const OUTSIDE_WINDOW_MODE_LABELS: Record<OutsideWindowMode, string> = {
 };
 
 /** What an alert is about. */
-export const ALERT_KINDS = ["sensor_quiet", "plug_unanswered", "plug_offline", "too_hot", "too_cold", "overload"] as const;
+export const ALERT_KINDS = [
+  "sensor_quiet",
+  "plug_unanswered",
+  "plug_offline",
+  "too_hot",
+  "too_cold",
+  "overload",
+  "too_warm",
+  "battery_low",
+  "plug_mismatch",
+  "condensation",
+  "heater_long_on",
+  "controller_silent",
+] as const;
 export type AlertKind = (typeof ALERT_KINDS)[number];
 
 export const ALERT_KIND_LABELS: Record<AlertKind, string> = {
-  sensor_quiet: "Sensor quiet",
+  sensor_quiet: "Sensor silent",
   plug_unanswered: "Plug not answering",
   plug_offline: "Plug offline",
-  too_hot: "Too warm",
-  too_cold: "Too cold",
+  too_hot: "Heater cut out at the high limit",
+  too_cold: "Frost risk",
   overload: "Plug overloaded",
+  too_warm: "Too warm",
+  battery_low: "Sensor battery low",
+  plug_mismatch: "Plug not as commanded",
+  condensation: "Condensation risk",
+  heater_long_on: "Heater on for a long time",
+  controller_silent: "Control stopped",
 };
+
+/**
+ * Frost risk always goes out: nobody can turn it off or hold it back for quiet hours.
+ * Every other kind is each member's own choice (lib/alerts/preferences.ts).
+ */
+export const ALWAYS_SENT_ALERT_KINDS: readonly AlertKind[] = ["too_cold"];
+
+/** What an e-mail in the outbox is for (outbound_mail.purpose). */
+export const MAIL_PURPOSES = ["alert_raised", "alert_reminder", "alert_cleared", "daily_summary"] as const;
+export type MailPurpose = (typeof MAIL_PURPOSES)[number];
+
+/**
+ * Where an e-mail in the outbox stands. `waiting`: to be sent at due_at (a retry waits
+ * here too, with attempts > 0 and last_error set); `held`: kept back by the member's
+ * quiet hours until due_at; `skipped`: not sent, and why is in last_error (for example
+ * back to normal before quiet hours ended); `given_up`: retried for a day without success.
+ */
+export const MAIL_STATUSES = ["waiting", "held", "sent", "skipped", "given_up"] as const;
+export type MailStatus = (typeof MAIL_STATUSES)[number];
 
 /** A reading older than this counts as stale, unless a plug says otherwise (plugs.stale_after_s's default). */
 export const DEFAULT_STALE_AFTER_S = 600;
@@ -133,6 +171,10 @@ export const AUDIT_ENTITY_LABELS: Record<string, string> = {
   tariff: "Tariff",
   bill: "Bill",
   settings: "Personal settings",
+  alert: "Alert",
+  alert_rules: "Alert rules",
+  alert_preferences: "Alert e-mails",
+  reading_import: "Imported readings",
 };
 
 /**
@@ -171,6 +213,11 @@ export const AUDIT_ACTION_LABELS: Record<string, string> = {
   "bill.create": "Entered a bill",
   "bill.update": "Changed a bill",
   "bill.delete": "Removed a bill",
+  "alert.acknowledge": "Acknowledged an alert",
+  "alert_rules.update": "Changed a house's alert rules",
+  "alert_preferences.update": "Changed their alert e-mails",
+  "site.summary": "Changed the daily summary time",
+  "reading_import.create": "Imported sensor readings",
 };
 
 /** Names of changed fields on the activity page; others are spelled out from their key. */

@@ -10,6 +10,7 @@ const SECTIONS: { path: string; label: string; action: Action }[] = [
   { path: "", label: "Houses", action: "site.view" },
   { path: "/schedules", label: "Schedules", action: "site.view" },
   { path: "/devices", label: "Devices", action: "site.view" },
+  { path: "/alerts", label: "Alerts", action: "alerts.view" },
   { path: "/history", label: "History", action: "history.view" },
   { path: "/reports", label: "Reports", action: "reports.view" },
   { path: "/members", label: "Members", action: "members.view" },

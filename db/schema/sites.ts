@@ -18,6 +18,8 @@ export const sites = mysqlTable("sites", {
   /** A load that runs for hours may draw at most this percent of its plug's rating (80 % in NEC 210.19(A)/210.20(A)). */
   continuousLoadPercent: tinyint("continuous_load_percent").notNull().default(CONTINUOUS_LOAD_PERCENT.default),
   degreeDayMethod: mysqlEnum("degree_day_method", DEGREE_DAY_METHODS).notNull().default("uk_met_office"),
+  /** When the daily summary e-mail goes out, HH:MM in the site's zone; null: none. */
+  summaryTime: varchar("summary_time", { length: 5 }),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
 });

@@ -69,3 +69,9 @@ export const localDate = (label: string) =>
       const d = new Date(`${v}T00:00:00Z`);
       return !Number.isNaN(d.getTime()) && d.toISOString().startsWith(v);
     }, `${label} is not a date in the calendar`);
+
+const TIME_OF_DAY_RE = /^([01]\d|2[0-3]):[0-5]\d$/;
+
+/** A wall-clock time of day, HH:MM (00:00 to 23:59), read in the site's time zone. */
+export const timeOfDay = (label: string) =>
+  z.string({ error: `${label} must be text` }).regex(TIME_OF_DAY_RE, `${label} must be a time of day, HH:MM (00:00 to 23:59)`);

@@ -19,7 +19,7 @@ import {
   recurrenceFromDays,
 } from "@/lib/schedules/week";
 import { cToF, fromUnit } from "@/lib/units";
-import { line, localDate, recordId } from "./common";
+import { line, localDate, recordId, timeOfDay } from "./common";
 
 /**
  * The narrowest band the editor takes: 1 °C between the edges. Common practice for
@@ -39,10 +39,7 @@ export function bothUnits(c: number): string {
   return `${c.toFixed(1)} °C (${cToF(c).toFixed(1)} °F)`;
 }
 
-const TIME_RE = /^([01]\d|2[0-3]):[0-5]\d$/;
-
-const localTime = (label: string) =>
-  z.string({ error: `${label} must be text` }).regex(TIME_RE, `${label} must be a time of day, HH:MM (00:00 to 23:59)`);
+const localTime = timeOfDay;
 
 const tenths = (v: number) => Math.abs(v * 10 - Math.round(v * 10)) < 1e-6;
 
