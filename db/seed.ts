@@ -40,6 +40,8 @@ export const DEMO_SITE = {
   timeZone: "Europe/London",
   currency: "GBP",
   mainsVoltage: 230,
+  /** The daily summary e-mail goes to the owner at half past seven, covering the day before. */
+  summaryTime: "07:30",
 };
 
 export const DEMO_MEMBERS: { key: string; name: string; email: string; password: string; role: Role }[] = [
