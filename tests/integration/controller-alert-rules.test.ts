@@ -7,7 +7,7 @@ import type { MqttClient } from "mqtt";
 import { getDb } from "@/db/client";
 import { alerts, houseAlertRules } from "@/db/schema";
 import { createController, type Controller } from "@/controller/controller";
-import type { PlugDevice } from "@/fakes/plug-device";
+import { startPlugDevice, type PlugDevice } from "@/fakes/plug-device";
 import { alertDetailFrom } from "@/lib/alerts/detail";
 import { DEFAULT_ALERT_RULES, type AlertRules } from "@/lib/alerts/rules";
 import { deviceUsername } from "@/lib/mqtt/credentials";
@@ -181,5 +181,43 @@ describe("the controller's alert rules", () => {
       return rows.length ? rows : undefined;
     }, 5000, "frost risk under the new limit");
     expect(alertDetailFrom(open[0]!.detail)).toMatchObject({ valueC: 4, limitC: 5 });
+  });
+
+  it("raises a plug offline once it has not been heard for the rule's minutes, and closes it when it comes online", async () => {
+    // The light has no device running: nothing has been heard from it since the controller started.
+    await getDb()
+      .update(houseAlertRules)
+      .set({ rules: { ...rules, plugOffline: { enabled: true, afterMin: 1 } } })
+      .where(eq(houseAlertRules.houseId, site.houseId));
+    await controller.reload(site.slug);
+    clock += MIN + 1000;
+    const offline = await eventually(async () => {
+      const rows = (await rowsOf("plug_offline")).filter((r) => r.plugId === site.lightId);
+      return rows.length ? rows : undefined;
+    }, 5000, "light offline");
+    expect(offline).toHaveLength(1);
+    expect(offline[0]!.message).toBe("Light in Test house is offline or has not been heard from.");
+
+    const light = await startPlugDevice({
+      url: controller.mqttUrl,
+      site: site.slug,
+      device: "light-1",
+      password: site.secret("plug", "light-1"),
+      ratedW: 100,
+      failsafeOn: false,
+      tickMs: 100,
+      reportEveryMs: 0,
+    });
+    try {
+      clock += 6000;
+      const back = await eventually(async () => {
+        const rows = (await rowsOf("plug_offline")).filter((r) => r.plugId === site.lightId);
+        return rows[0]?.clearedAt ? rows : undefined;
+      }, 5000, "light online again");
+      expect(back).toHaveLength(1);
+      expect(back[0]!.clearedMessage).toBe("Back to normal: Light in Test house is online again.");
+    } finally {
+      await light.close();
+    }
   });
 });
