@@ -119,7 +119,8 @@ export function createAlertWatch(options: AlertWatchOptions) {
 
   function evaluateSensor(sensor: SensorRuntime, reading: LatestReading, nowMs: number) {
     const w = sensorWatch(sensor);
-    const batteryPercent = reading.battery === null ? null : reading.battery * 100;
+    // Sensors send 0..1; 0.07 × 100 is 7.000000000000001, so keep a tenth of a point.
+    const batteryPercent = reading.battery === null ? null : Math.round(reading.battery * 1000) / 10;
     const result = evaluateReading(w.conditions, sensor.alert, { tempC: reading.tempC, rh: reading.rh, batteryPercent }, nowMs);
     w.conditions = result.conditions;
     for (const change of result.changes) carry(change, w.subject);
