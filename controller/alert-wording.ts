@@ -15,14 +15,19 @@ export function followDecisionAlerts(alerts: Alerts, runtime: PlugRuntime, decis
   const sensorSubject = runtime.config.sensorId
     ? { siteId: runtime.site.id, houseId: runtime.config.houseId, sensorId: runtime.config.sensorId }
     : subject;
+  // Sensor silence is shared with the house's alert rules and closed only by a reading
+  // (alert-watch.ts), so the decision raises it and never closes it.
   if (has("sensor_quiet")) {
     const action = decision.cause === "failsafe" ? "; it is on its quiet-sensor fail-safe" : "";
     alerts.raise("sensor_quiet", sensorSubject, `No fresh reading for ${name}${action}.`);
-  } else if (runtime.config.sensorId && decision.readingTempC !== null) alerts.clear("sensor_quiet", sensorSubject);
+  }
   if (has("overload")) alerts.raise("overload", subject, `${name}: the appliance draws more than the plug may carry for hours; kept off.`);
-  else alerts.clear("overload", subject);
+  else if (alerts.isOpen("overload", subject)) alerts.clear("overload", subject, `Back to normal: ${name} may carry its appliance again.`);
   if (has("too_hot")) alerts.raise("too_hot", subject, `${name}: at or above the house's high limit; heater kept off.`);
-  else alerts.clear("too_hot", subject);
+  else if (alerts.isOpen("too_hot", subject)) {
+    const reading = decision.readingTempC === null ? {} : { valueC: decision.readingTempC };
+    alerts.clear("too_hot", subject, `Back to normal: ${name} is below the house's high limit again.`, reading);
+  }
 }
 
 export function raiseUnanswered(alerts: Alerts, runtime: PlugRuntime, attempts: number, commandId: string) {

@@ -1,8 +1,9 @@
 // Alerts the controller raises and clears: one open row per (kind, plug or sensor).
-import { and, eq, isNull } from "drizzle-orm";
+import { and, eq, isNull, sql } from "drizzle-orm";
 import type { Logger } from "pino";
 import type { Database } from "@/db/client";
 import { alerts } from "@/db/schema";
+import type { AlertDetail } from "@/lib/alerts/detail";
 
 export type AlertKind = (typeof alerts.$inferInsert)["kind"];
 export type AlertSubject = { siteId: string; houseId?: string | null; plugId?: string | null; sensorId?: string | null };
@@ -13,7 +14,8 @@ export function alertKey(kind: AlertKind, subject: AlertSubject) {
 
 export function createAlerts(options: { db: Database; logger: Logger; now: () => number }) {
   const { db, logger } = options;
-  const open = new Map<string, number | "pending">();
+  // The row id of each open alert, or its insert while that is on its way.
+  const open = new Map<string, number | Promise<number | null>>();
   // Moves whenever the open set changes other than by raise/clear (a load, a failed
   // write), so callers that skip unchanged decisions know to look again.
   let generation = 0;
@@ -31,34 +33,47 @@ export function createAlerts(options: { db: Database; logger: Logger; now: () =>
   function raise(kind: AlertKind, subject: AlertSubject, message: string, detail?: unknown) {
     const key = alertKey(kind, subject);
     if (open.has(key)) return;
-    open.set(key, "pending");
     logger.warn({ kind, ...subject, message }, "alert raised");
-    db.insert(alerts)
+    const insert: Promise<number | null> = db
+      .insert(alerts)
       .values({ kind, ...subject, message: message.slice(0, 280), detail: detail ?? null, raisedAt: new Date(options.now()) })
       .$returningId()
-      .then(([row]) => {
-        if (open.get(key) === "pending" && row) open.set(key, row.id);
-      })
+      .then(([row]) => row?.id ?? null)
       .catch((error: unknown) => {
-        open.delete(key);
-        generation++;
+        if (open.get(key) === insert) {
+          open.delete(key);
+          generation++;
+        }
         logger.error({ err: error, key }, "could not store an alert; it will be raised again");
+        return null;
       });
+    open.set(key, insert);
+    void insert.then((id) => {
+      if (id !== null && open.get(key) === insert) open.set(key, id);
+    });
   }
 
-  function clear(kind: AlertKind, subject: AlertSubject) {
+  /**
+   * Closes the open alert of this kind and subject, if any. `clearedMessage` is the
+   * figure-free "back to normal" sentence; `cleared` is kept as the row's detail.cleared
+   * (its `at` defaults to now). A clear that follows its raise closely waits for the
+   * row to be written.
+   */
+  function clear(kind: AlertKind, subject: AlertSubject, clearedMessage?: string, cleared?: Partial<NonNullable<AlertDetail["cleared"]>>) {
     const key = alertKey(kind, subject);
     const id = open.get(key);
     if (id === undefined) return;
     open.delete(key);
-    logger.info({ kind, ...subject }, "alert cleared");
-    const where =
-      typeof id === "number"
-        ? eq(alerts.id, id)
-        : and(eq(alerts.kind, kind), isNull(alerts.clearedAt), subject.plugId ? eq(alerts.plugId, subject.plugId) : eq(alerts.sensorId, subject.sensorId ?? ""));
-    db.update(alerts)
-      .set({ clearedAt: new Date(options.now()) })
-      .where(where)
+    logger.info({ kind, ...subject, clearedMessage }, "alert cleared");
+    const clearedAt = new Date(options.now());
+    const clearedDetail = cleared || clearedMessage ? { ...cleared, at: cleared?.at ?? clearedAt.toISOString() } : null;
+    const set = {
+      clearedAt,
+      ...(clearedMessage ? { clearedMessage: clearedMessage.slice(0, 280) } : {}),
+      ...(clearedDetail ? { detail: sql`JSON_SET(COALESCE(${alerts.detail}, JSON_OBJECT()), '$.cleared', JSON_EXTRACT(${JSON.stringify(clearedDetail)}, '$'))` } : {}),
+    };
+    Promise.resolve(id)
+      .then((rowId) => (rowId === null ? undefined : db.update(alerts).set(set).where(and(eq(alerts.id, rowId), isNull(alerts.clearedAt)))))
       .catch((error: unknown) => logger.error({ err: error, key }, "could not clear an alert"));
   }
 

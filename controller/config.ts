@@ -1,18 +1,23 @@
-// Loads what the controller needs from MariaDB: sites, plugs with their house's
-// limits, sensors, schedules and the overrides that are or will be active.
+// Loads what the controller needs from MariaDB: sites, houses with their alert rules,
+// plugs with their house's limits, sensors, schedules and the overrides that are or
+// will be active.
 import { and, eq, gt, inArray, isNull, sql } from "drizzle-orm";
 import type { Database } from "@/db/client";
 import { sharedRules, type PlugRules } from "@/lib/control";
-import { houses, plugs, readings, sensors, sites } from "@/db/schema";
+import { houseAlertRules, houses, plugs, readings, sensors, sites } from "@/db/schema";
+import { storedAlertRules, type AlertRules } from "@/lib/alerts/rules";
 import { loadPlugSchedules, type OverrideConfig, type ScheduleConfig } from "@/db/plug-schedules";
 
 export type SiteConfig = { id: string; slug: string; timeZone: string; mainsVoltage: number; continuousLoadPercent: number };
 export type PlugConfig = typeof plugs.$inferSelect & { highLimitC: number };
-export type SensorConfig = Pick<typeof sensors.$inferSelect, "id" | "siteId" | "houseId" | "deviceId">;
+export type SensorConfig = Pick<typeof sensors.$inferSelect, "id" | "siteId" | "houseId" | "deviceId" | "name" | "placement">;
+/** A house as the alert rules need it: its name, frost limit and rules (the defaults when it has none stored). */
+export type HouseConfig = { id: string; siteId: string; name: string; lowLimitC: number; alertRules: AlertRules };
 export type { OverrideConfig, ScheduleConfig };
 
 export type Config = {
   sites: SiteConfig[];
+  houses: HouseConfig[];
   plugs: PlugConfig[];
   sensors: SensorConfig[];
   schedules: ScheduleConfig[];
@@ -30,29 +35,36 @@ export async function loadConfig(db: Database, now: Date, siteSlugs?: string[]):
     })
     .from(sites)
     .where(siteSlugs?.length ? inArray(sites.slug, siteSlugs) : undefined);
-  if (siteRows.length === 0) return { sites: [], plugs: [], sensors: [], schedules: [], overrides: [] };
+  if (siteRows.length === 0) return { sites: [], houses: [], plugs: [], sensors: [], schedules: [], overrides: [] };
   const siteIds = siteRows.map((s) => s.id);
 
-  const [plugRows, sensorRows] = await Promise.all([
+  const [houseRows, plugRows, sensorRows] = await Promise.all([
+    db
+      .select({ id: houses.id, siteId: houses.siteId, name: houses.name, lowLimitC: houses.lowLimitC, rules: houseAlertRules.rules })
+      .from(houses)
+      .leftJoin(houseAlertRules, eq(houseAlertRules.houseId, houses.id))
+      .where(inArray(houses.siteId, siteIds)),
     db
       .select({ plug: plugs, highLimitC: houses.highLimitC })
       .from(plugs)
       .innerJoin(houses, eq(houses.id, plugs.houseId))
       .where(and(inArray(plugs.siteId, siteIds), isNull(plugs.retiredAt))),
     db
-      .select({ id: sensors.id, siteId: sensors.siteId, houseId: sensors.houseId, deviceId: sensors.deviceId })
+      .select({ id: sensors.id, siteId: sensors.siteId, houseId: sensors.houseId, deviceId: sensors.deviceId, name: sensors.name, placement: sensors.placement })
       .from(sensors)
       .where(and(inArray(sensors.siteId, siteIds), isNull(sensors.retiredAt))),
   ]);
 
+  const houseConfigs = houseRows.map(({ rules, ...house }) => ({ ...house, alertRules: storedAlertRules(rules) }));
   const plugIds = plugRows.map((r) => r.plug.id);
   if (plugIds.length === 0) {
-    return { sites: siteRows, plugs: [], sensors: sensorRows, schedules: [], overrides: [] };
+    return { sites: siteRows, houses: houseConfigs, plugs: [], sensors: sensorRows, schedules: [], overrides: [] };
   }
 
   const { schedules: plugSchedules, overrides: overrideRows } = await loadPlugSchedules(db, plugIds, now);
   return {
     sites: siteRows,
+    houses: houseConfigs,
     plugs: plugRows.map((r) => ({ ...r.plug, highLimitC: r.highLimitC })),
     sensors: sensorRows,
     schedules: plugSchedules,
@@ -71,7 +83,7 @@ export async function loadLatestReadings(db: Database, sensorIds: string[], now:
     .groupBy(readings.sensorId)
     .as("latest");
   return db
-    .select({ sensorId: readings.sensorId, tempC: readings.tempC, at: readings.at })
+    .select({ sensorId: readings.sensorId, tempC: readings.tempC, rh: readings.rh, battery: readings.battery, at: readings.at })
     .from(readings)
     .innerJoin(latest, and(eq(latest.sensorId, readings.sensorId), eq(latest.at, readings.at)));
 }

@@ -7,7 +7,7 @@
 //   switching.ts     each plug's switch lifecycle (lib/control/switch-lifecycle.ts), effects applied
 //   outbox.ts        commands on their way to the broker
 //   switch-log.ts    the switch log and plug_states; readings-store.ts readings and presence
-//   alert-wording.ts what the alerts say; alerts.ts stores them
+//   alert-wording.ts what the decision's alerts say; alert-watch.ts the house's alert rules; alerts.ts stores them
 //   timers.ts, heartbeat.ts, startup.ts
 import { randomUUID } from "node:crypto";
 import pino, { type Logger } from "pino";
@@ -18,6 +18,7 @@ import type { Decision } from "@/lib/control";
 import { restoredState } from "@/lib/control/switch-lifecycle";
 import { CONTROLLER_USERNAME } from "@/lib/mqtt/credentials";
 import { createAlerts } from "./alerts";
+import { createAlertWatch } from "./alert-watch";
 import { createBroker, type Broker } from "./broker";
 import { loadConfig, loadLatestReadings } from "./config";
 import { createHeartbeat } from "./heartbeat";
@@ -48,6 +49,8 @@ export type ControllerOptions = {
   maxRetryMs: number;
   /** Unanswered sends of one command before a plug_unanswered alert. */
   unansweredAfter: number;
+  /** How often the time-based alert rules (silent sensor, plug offline, …) are looked at. */
+  alertWatchMs: number;
   /** The backstop reload of every site; a change made in the app wakes its site at once. */
   configReloadMs: number;
   /** How long to wait for plugs' retained reports before deciding without them. */
@@ -70,6 +73,7 @@ const defaults: Omit<ControllerOptions, "databaseUrl" | "controllerSecret" | "we
   ackTimeoutMs: 2000,
   maxRetryMs: 30_000,
   unansweredAfter: 4,
+  alertWatchMs: 5000,
   configReloadMs: 30_000,
   startupGraceMs: 1500,
   flushMs: 250,
@@ -124,6 +128,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
   const alerts = createAlerts({ db, logger, now });
   const heartbeat = createHeartbeat({ db, instanceId: randomUUID(), sites: options.sites, everyMs: options.heartbeatMs, now, logger });
   const registry = createRegistry();
+  const alertWatch = createAlertWatch({ alerts, registry, logger, ackTimeoutMs: options.ackTimeoutMs, everyMs: options.alertWatchMs, now });
   const outbox = createOutbox({ logger });
   let staleReports = 0;
   const switching = createSwitching({
@@ -143,6 +148,8 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
     const stored = await loadPlugStates(db, registry.unknownPlugs(config).map((p) => p.id));
     const startMs = now();
     registry.apply(config, (plug) => restoredState(storedSwitchState(stored.get(plug.id), startMs), startMs), !siteSlug);
+    // Rules saved in the app apply at once: the latest readings are looked at again.
+    alertWatch.reloaded(now());
     // New windows or overrides may bring the next edge closer.
     if (edgesArmed) armEdge();
     logger.info({ site: siteSlug ?? "all", sites: config.sites.length, plugs: config.plugs.length, sensors: config.sensors.length }, "configuration loaded");
@@ -155,7 +162,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
     const startNow = now();
     for (const r of await loadLatestReadings(db, registry.sensorIds(), new Date(startNow))) {
       // Age it by when it was taken: a restart must not make an old reading look fresh.
-      registry.setReading(r.sensorId, { tempC: r.tempC, atMs: Math.min(r.at.getTime(), startNow) });
+      registry.setReading(r.sensorId, { tempC: r.tempC, rh: r.rh, battery: r.battery, atMs: Math.min(r.at.getTime(), startNow) });
     }
   });
 
@@ -181,6 +188,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
         switching.timer(runtime, nowMs);
       }
     });
+    alertWatch.tick(nowMs);
   }
 
   // A wake-up from the web app reloads its site alone, a few at once if they come together.
@@ -206,10 +214,12 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
         // the stored time is the sensor's unless that clock is clearly off.
         const claimed = Date.parse(r.at);
         const takenAt = Math.abs(claimed - nowMs) <= 5 * 60_000 ? claimed : nowMs;
-        registry.setReading(sensor.id, { tempC: r.temp_c, atMs: nowMs });
-        store.add({ sensorId: sensor.id, at: new Date(takenAt), tempC: r.temp_c, rh: r.rh ?? null, battery: r.battery ?? null });
+        const latest = { tempC: r.temp_c, rh: r.rh ?? null, battery: r.battery ?? null, atMs: nowMs };
+        registry.setReading(sensor.id, latest);
+        store.add({ sensorId: sensor.id, at: new Date(takenAt), tempC: r.temp_c, rh: latest.rh, battery: latest.battery });
         store.sensorSeen(sensor.id, true, new Date(nowMs));
         for (const runtime of registry.plugsFollowing(sensor.id)) switching.evaluate(runtime, nowMs);
+        alertWatch.reading(sensor, latest, nowMs);
       },
       report(site, device, report, nowMs) {
         const runtime = registry.plug(site, device);
@@ -231,12 +241,14 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
           }
         }
         switching.report(runtime, { on: report.on, cmd: report.cmd ?? null, plugTimeMs }, nowMs);
+        alertWatch.heard(runtime, nowMs);
       },
       presence(site, device, online, nowMs) {
         const runtime = registry.plug(site, device);
         if (!runtime) return "unknown_plug";
         switchLog.present(runtime.config.id, { online, lastSeenAt: new Date(nowMs) });
         switching.presence(runtime, online, nowMs);
+        alertWatch.presence(runtime, online, nowMs);
       },
       wake(site) {
         if (served && !served.has(site)) return;

@@ -2,12 +2,14 @@
 // schedules, overrides, switch lifecycle state and the latest readings. A reload
 // replaces the sites it covers and keeps everything else.
 import type { PlugRules } from "@/lib/control";
+import { DEFAULT_ALERT_RULES } from "@/lib/alerts/rules";
 import type { PlugSwitchState } from "@/lib/control/switch-lifecycle";
 import type { Decision } from "@/lib/control";
 import { groupBy } from "@/lib/group-by";
 import { plugTopic } from "@/lib/mqtt/topics";
 import { compilePlugSchedule, type PlugSchedule } from "./plug-schedule";
-import { rulesOf, type Config, type OverrideConfig, type PlugConfig, type SiteConfig } from "./config";
+import type { HouseAlertContext, PlugAlertContext, SensorAlertContext } from "@/lib/alerts/evaluate";
+import { rulesOf, type Config, type HouseConfig, type OverrideConfig, type PlugConfig, type SiteConfig } from "./config";
 
 export type PlugRuntime = {
   config: PlugConfig;
@@ -22,15 +24,27 @@ export type PlugRuntime = {
   last: Decision | null;
   /** Bumped by a reload: names and settings may have changed, so alerts are looked at again. */
   alertGeneration: number;
+  /** Its name and house (with the house's alert rules), for the rule-based alerts. */
+  alert: PlugAlertContext;
 };
 
-export type SensorRuntime = { id: string; siteId: string; houseId: string };
+export type SensorRuntime = { id: string; siteId: string; houseId: string; alert: SensorAlertContext };
+
+/** The latest reading of a sensor: when it arrived, and its temperature, humidity (%) and battery (0..1). */
+export type LatestReading = { tempC: number | null; rh: number | null; battery: number | null; atMs: number };
+
+function houseContext(house: HouseConfig | undefined, houseId: string): HouseAlertContext {
+  // A house always loads with its plugs and sensors (same sites); this only keeps the type honest.
+  return house
+    ? { id: house.id, name: house.name, lowLimitC: house.lowLimitC, rules: house.alertRules }
+    : { id: houseId, name: "its house", lowLimitC: 2, rules: DEFAULT_ALERT_RULES };
+}
 
 export function createRegistry() {
   let plugsByDevice = new Map<string, PlugRuntime>();
   let sensorsByDevice = new Map<string, SensorRuntime>();
   let plugsBySensor = new Map<string, PlugRuntime[]>();
-  const latestReading = new Map<string, { tempC: number | null; atMs: number }>();
+  const latestReading = new Map<string, LatestReading>();
 
   /**
    * Takes in a fresh configuration of `config.sites` (all sites the controller
@@ -46,6 +60,13 @@ export function createRegistry() {
       if (replacesAll || reloaded.has(runtime.site.id)) previous.set(runtime.config.id, runtime);
       else next.set(key, runtime);
     }
+    const houseById = new Map(config.houses.map((h) => [h.id, h]));
+    const houses = new Map<string, HouseAlertContext>();
+    const houseOf = (houseId: string) => {
+      let house = houses.get(houseId);
+      if (!house) houses.set(houseId, (house = houseContext(houseById.get(houseId), houseId)));
+      return house;
+    };
     const schedulesOf = groupBy(config.schedules, (s) => s.plugId);
     const overridesOf = groupBy(config.overrides, (o) => o.plugId);
     for (const plug of config.plugs) {
@@ -76,6 +97,7 @@ export function createRegistry() {
         switching: before?.switching ?? startOf(plug),
         last: before?.last ?? null,
         alertGeneration: -1,
+        alert: { id: plug.id, name: plug.name, isHeater: plug.applianceKind === "heater", house: houseOf(plug.houseId) },
       });
     }
     plugsByDevice = next;
@@ -84,7 +106,9 @@ export function createRegistry() {
     for (const [key, sensor] of sensorsByDevice) if (!replacesAll && !reloaded.has(sensor.siteId)) sensors.set(key, sensor);
     for (const s of config.sensors) {
       const site = sitesById.get(s.siteId);
-      if (site) sensors.set(`${site.slug}/${s.deviceId}`, { id: s.id, siteId: s.siteId, houseId: s.houseId });
+      if (!site) continue;
+      const alert = { id: s.id, name: s.name, outside: s.placement === "outside", house: houseOf(s.houseId) };
+      sensors.set(`${site.slug}/${s.deviceId}`, { id: s.id, siteId: s.siteId, houseId: s.houseId, alert });
     }
     sensorsByDevice = sensors;
 
@@ -109,9 +133,10 @@ export function createRegistry() {
     sensor: (siteSlug: string, deviceId: string) => sensorsByDevice.get(`${siteSlug}/${deviceId}`),
     plugs: () => plugsByDevice.values(),
     sensorIds: () => [...sensorsByDevice.values()].map((s) => s.id),
+    sensors: () => sensorsByDevice.values(),
     plugsFollowing: (sensorId: string) => plugsBySensor.get(sensorId) ?? [],
     reading: (sensorId: string) => latestReading.get(sensorId) ?? null,
-    setReading: (sensorId: string, reading: { tempC: number | null; atMs: number }) => latestReading.set(sensorId, reading),
+    setReading: (sensorId: string, reading: LatestReading) => latestReading.set(sensorId, reading),
   };
 }
 

@@ -10,8 +10,13 @@ export type AlertDetail = {
   /** Relative humidity %, and the dew point worked out from it (°C). */
   rh?: number;
   dewPointC?: number;
-  /** Battery level as a percentage (0–100). */
+  /** A humidity limit crossed (%). */
+  limitRh?: number;
+  /** Battery level as a percentage (0–100), and the level it fell below. */
   batteryPercent?: number;
+  limitPercent?: number;
+  /** Which condensation rule opened it: the air near its dew point, or a long humid stretch. */
+  condensation?: "near_dew_point" | "humid_for_hours";
   /** How long the condition had lasted when the alert opened, in minutes. */
   lastedMin?: number;
   /** When the condition began (ISO 8601 UTC): the last reading heard, the plug going offline, the heater coming on. */
@@ -32,12 +37,13 @@ export function alertDetailFrom(value: unknown): AlertDetail {
   if (value === null || typeof value !== "object" || Array.isArray(value)) return {};
   const v = value as Record<string, unknown>;
   const out: AlertDetail = {};
-  for (const key of ["valueC", "limitC", "hysteresisK", "rh", "dewPointC", "batteryPercent", "lastedMin"] as const) {
+  for (const key of ["valueC", "limitC", "hysteresisK", "rh", "dewPointC", "limitRh", "batteryPercent", "limitPercent", "lastedMin"] as const) {
     if (typeof v[key] === "number" && Number.isFinite(v[key])) out[key] = v[key] as number;
   }
   for (const key of ["since", "houseName", "sensorName", "plugName"] as const) {
     if (typeof v[key] === "string") out[key] = v[key] as string;
   }
+  if (v.condensation === "near_dew_point" || v.condensation === "humid_for_hours") out.condensation = v.condensation;
   for (const key of ["reportedOn", "commandedOn"] as const) {
     if (typeof v[key] === "boolean") out[key] = v[key] as boolean;
   }
