@@ -97,7 +97,7 @@ export function createRegistry() {
         switching: before?.switching ?? startOf(plug),
         last: before?.last ?? null,
         alertGeneration: -1,
-        alert: { id: plug.id, name: plug.name, isHeater: plug.applianceKind === "heater", house: houseOf(plug.houseId) },
+        alert: { id: plug.id, name: plug.name, isHeater: plug.applianceKind === "heater", refreshMs: (plug.leaseS * 1000) / 3, house: houseOf(plug.houseId) },
       });
     }
     plugsByDevice = next;

@@ -21,7 +21,18 @@ export type RuleAlertKind = "too_cold" | "too_warm" | "battery_low" | "condensat
 
 export type HouseAlertContext = { id: string; name: string; lowLimitC: number; rules: AlertRules };
 export type SensorAlertContext = { id: string; name: string; outside: boolean; house: HouseAlertContext };
-export type PlugAlertContext = { id: string; name: string; isHeater: boolean; house: HouseAlertContext };
+export type PlugAlertContext = {
+  id: string;
+  name: string;
+  isHeater: boolean;
+  /**
+   * A plug left alone is sent its state again every third of its lease and answers
+   * each time, so "not heard from" waits that long on top of the rule's minutes before
+   * it counts as offline; a plug's own "offline" (its last will) counts at once.
+   */
+  refreshMs: number;
+  house: HouseAlertContext;
+};
 
 export type ClearedDetail = NonNullable<AlertDetail["cleared"]>;
 export type AlertChange =
@@ -234,7 +245,10 @@ export function evaluatePlug(conditions: PlugConditions, plug: PlugAlertContext,
   const offline = track(
     conditions.offline,
     rules.plugOffline.enabled,
-    { active: nowMs - quietSinceMs >= offlineMs, clearable: o.offlineSinceMs === null && nowMs - o.lastHeardMs < offlineMs },
+    {
+      active: o.offlineSinceMs !== null ? nowMs - o.offlineSinceMs >= offlineMs : nowMs - o.lastHeardMs >= offlineMs + plug.refreshMs,
+      clearable: o.offlineSinceMs === null && nowMs - o.lastHeardMs < offlineMs + plug.refreshMs,
+    },
     nowMs,
     0,
   );

@@ -202,7 +202,7 @@ describe("sensor silence", () => {
 });
 
 describe("plugs", () => {
-  const heater = { id: "p1", name: "Bench heater", isHeater: true, house: house() };
+  const heater = { id: "p1", name: "Bench heater", isHeater: true, refreshMs: 0, house: house() };
   const calm: PlugObservation = { offlineSinceMs: null, lastHeardMs: T0, reportedOn: true, commandedOn: true, commandedSinceMs: T0, on: true, onSinceMs: T0 };
 
   function watch(seq: [min: number, o: Partial<PlugObservation>][], plug = heater, ackTimeoutMs = 2000) {
@@ -230,6 +230,16 @@ describe("plugs", () => {
       ["plug_offline", "raise", 20],
     ]);
     expect(changes[0]!.message).toBe("Bench heater in Long house is offline or has not been heard from.");
+  });
+
+  it("gives a plug that is online but quiet a third of its lease on top, as it answers a refresh that often", () => {
+    const quiet = { ...heater, refreshMs: 5 * MIN };
+    const changes = watch([
+      [5, { lastHeardMs: T0 }],
+      [9, { lastHeardMs: T0 }],
+      [10, { lastHeardMs: T0 }],
+    ], quiet);
+    expect(changes.map((c) => [c.kind, c.change, c.atMin])).toEqual([["plug_offline", "raise", 10]]);
   });
 
   it("raises not-as-commanded only after the acknowledgement timeout and its minutes, never for a command on its way", () => {
