@@ -1,5 +1,6 @@
 // The web app's one notifier, kept on globalThis so a development reload does not start
-// a second, and closed when the process is asked to stop.
+// a second. It is not closed on exit: its timer does not keep the process alive, and an
+// e-mail claimed when the process stopped is sent again once its claim runs out.
 import { createNotifier, type Notifier } from "./notifier";
 
 const holder = globalThis as unknown as { __clocheNotifier?: Promise<Notifier> };
@@ -8,9 +9,6 @@ export function startAppNotifier(): Promise<Notifier> {
   if (!holder.__clocheNotifier) {
     holder.__clocheNotifier = createNotifier();
     holder.__clocheNotifier.catch(() => (holder.__clocheNotifier = undefined));
-    for (const signal of ["SIGTERM", "SIGINT"] as const) {
-      process.once(signal, () => void holder.__clocheNotifier?.then((n) => n.close()).catch(() => undefined));
-    }
   }
   return holder.__clocheNotifier;
 }
