@@ -221,8 +221,9 @@ export type DueMail = {
   waitsForOpening: boolean;
 };
 
-/** Waiting or held e-mails due by `now`, oldest first. */
-export async function getDueMail({ now, limit = 50 }: { now: Date; limit?: number }): Promise<DueMail[]> {
+/** Waiting or held e-mails due by `now`, oldest first (of the given sites only, when given). */
+export async function getDueMail({ now, siteIds, limit = 50 }: { now: Date; siteIds?: readonly string[]; limit?: number }): Promise<DueMail[]> {
+  if (siteIds && siteIds.length === 0) return [];
   const rows = await getDb()
     .select({
       id: outboundMail.id,
@@ -242,7 +243,7 @@ export async function getDueMail({ now, limit = 50 }: { now: Date; limit?: numbe
     })
     .from(outboundMail)
     .leftJoin(alerts, eq(alerts.id, outboundMail.alertId))
-    .where(and(inArray(outboundMail.status, ["waiting", "held"]), lte(outboundMail.dueAt, now)))
+    .where(and(inArray(outboundMail.status, ["waiting", "held"]), lte(outboundMail.dueAt, now), siteIds ? inArray(outboundMail.siteId, [...siteIds]) : undefined))
     .orderBy(asc(outboundMail.dueAt), asc(outboundMail.id))
     .limit(limit);
   return rows.map((r) => ({ ...r, waitsForOpening: r.waitsForOpening === 1 }));

@@ -97,7 +97,7 @@ export async function createNotifier(input: Partial<NotifierOptions> = {}): Prom
         logger.error({ site: site.slug, error: describe(error) }, "could not write the daily summary");
       }
     }
-    report.sending = await sendDueMail({ now, retry: options.retry, send: options.send });
+    report.sending = await sendDueMail({ now, retry: options.retry, send: options.send, siteIds: options.siteIds });
     if (report.written || report.sending.sent || report.sending.failed || report.controlStopped.raised || report.controlStopped.cleared) {
       logger.info(report, "alert e-mails");
     }

@@ -4,7 +4,7 @@
 import { claimMail, getDueMail, markMailFailed, markMailSent, markMailSkipped } from "@/db/queries/alert-outbox";
 import { afterFailure, type RetryPolicy } from "@/lib/alerts/retry";
 import type { Mail } from "@/lib/server/mail";
-import { plainMailError } from "./mail-error";
+import { plainMailError, refusedThisMessage } from "./mail-error";
 
 export const SKIPPED_AFTER_QUIET_HOURS =
   "Not sent: the alert was back to normal before your quiet hours ended. The back-to-normal message says what happened.";
@@ -14,9 +14,9 @@ const CLAIM_MS = 5 * 60_000;
 
 export type SendResult = { sent: number; failed: number; skipped: number };
 
-export async function sendDueMail({ now, retry, send }: { now: Date; retry: RetryPolicy; send: (mail: Mail) => Promise<unknown> }): Promise<SendResult> {
+export async function sendDueMail({ now, retry, send, siteIds }: { now: Date; retry: RetryPolicy; send: (mail: Mail) => Promise<unknown>; siteIds?: readonly string[] }): Promise<SendResult> {
   const result: SendResult = { sent: 0, failed: 0, skipped: 0 };
-  for (const mail of await getDueMail({ now })) {
+  for (const mail of await getDueMail({ now, siteIds })) {
     if (mail.purpose === "alert_raised" && mail.status === "held" && mail.alertClearedAt !== null) {
       if (await markMailSkipped({ id: mail.id, reason: SKIPPED_AFTER_QUIET_HOURS })) result.skipped++;
       continue;
@@ -29,10 +29,15 @@ export async function sendDueMail({ now, retry, send }: { now: Date; retry: Retr
       result.sent++;
     } catch (error) {
       const next = afterFailure({ attempts: mail.attempts + 1, writtenAt: mail.createdAt, now }, retry);
-      await markMailFailed({ id: mail.id, error: plainMailError(error), retryAt: next.giveUp ? null : next.retryAt });
+      const reason = plainMailError(error);
+      await markMailFailed({
+        id: mail.id,
+        error: next.giveUp ? `${reason} Given up after a day of tries.` : `${reason} Trying again in ${Math.round((next.retryAt.getTime() - now.getTime()) / 1000)} s.`,
+        retryAt: next.giveUp ? null : next.retryAt,
+      });
       result.failed++;
-      // The server is most likely down for the rest too: they stay due for the next pass.
-      break;
+      // A server that cannot be reached will not take the rest either: they stay due for the next pass.
+      if (!refusedThisMessage(error)) break;
     }
   }
   return result;
