@@ -2,7 +2,7 @@ import "server-only";
 // The notifier's reads and writes: which alerts still need telling, the outbox rows it
 // writes with their bookkeeping in alert_notices (one transaction), and the claims and
 // outcomes of sending. Only the notifier (lib/server/alerts/) uses this module.
-import { and, asc, eq, inArray, isNotNull, isNull, lte, or, sql } from "drizzle-orm";
+import { and, asc, eq, gte, inArray, isNotNull, isNull, lte, or, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { alertNotices, alerts, houseAlertRules, houses, outboundMail, sites, userSettings } from "@/db/schema";
 import { alertDetailFrom, type AlertDetail } from "@/lib/alerts/detail";
@@ -62,7 +62,9 @@ export type AlertToTell = {
  * The site's alerts the notifier still has something to do for: not yet announced, open
  * and unacknowledged (reminders), or cleared without their back-to-normal announced.
  */
-export async function getAlertsToTell({ siteId }: { siteId: string }): Promise<AlertToTell[]> {
+export async function getAlertsToTell({ siteId, now }: { siteId: string; now: Date }): Promise<AlertToTell[]> {
+  // Alerts that cleared over a week ago are history: whatever was not told by then is not news.
+  const recent = new Date(now.getTime() - 7 * 24 * 3600_000);
   const rows = await getDb()
     .select({
       id: alerts.id,
@@ -88,6 +90,7 @@ export async function getAlertsToTell({ siteId }: { siteId: string }): Promise<A
     .where(
       and(
         eq(alerts.siteId, siteId),
+        or(isNull(alerts.clearedAt), gte(alerts.clearedAt, recent)),
         or(
           isNull(alertNotices.alertId),
           and(isNull(alerts.clearedAt), isNull(alerts.acknowledgedAt)),

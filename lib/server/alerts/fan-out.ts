@@ -108,7 +108,7 @@ async function announceCleared(ctx: Context, alert: AlertToTell) {
 
 /** Writes the outbox rows a site's alerts call for at `now`; returns how many. */
 export async function fanOutSite(site: NotifierSite, { now, baseUrl, watchingSince }: { now: Date; baseUrl: string; watchingSince: Date }): Promise<number> {
-  const alerts = await getAlertsToTell({ siteId: site.id });
+  const alerts = await getAlertsToTell({ siteId: site.id, now });
   if (alerts.length === 0) return 0;
   const recipients = await getAlertRecipientsBySite({ siteId: site.id });
   const units = await getTemperatureUnitsByUser({ userIds: recipients.map((r) => r.userId) });

@@ -44,10 +44,12 @@ export type Notifier = {
   close(): Promise<void>;
 };
 
+const line = (message: string, fields: object) => `[notifier] ${message} ${JSON.stringify(fields)}`;
+
 const consoleLogger: NotifierLogger = {
-  info: (fields, message) => console.log(`[notifier] ${message}`, fields),
-  warn: (fields, message) => console.warn(`[notifier] ${message}`, fields),
-  error: (fields, message) => console.error(`[notifier] ${message}`, fields),
+  info: (fields, message) => console.log(line(message, fields)),
+  warn: (fields, message) => console.warn(line(message, fields)),
+  error: (fields, message) => console.error(line(message, fields)),
 };
 
 export const NOTIFIER_DEFAULTS: NotifierOptions = {
