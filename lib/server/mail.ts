@@ -39,6 +39,9 @@ export async function sendMail(mail: Mail): Promise<{ messageId: string }> {
     return { messageId: info.messageId };
   } catch (error) {
     console.error("[cloche] mail not sent", error);
-    throw new AppError("unavailable", "The e-mail could not be sent just now; nothing was changed. Please try again.");
+    const failure = new AppError("unavailable", "The e-mail could not be sent just now; nothing was changed. Please try again.");
+    // Kept for callers that say why in their own words (the alert outbox's last_error).
+    failure.cause = error;
+    throw failure;
   }
 }
