@@ -117,7 +117,7 @@ describe("AlertCard", () => {
       detail: { ...frost.detail, cleared: { valueC: 4, at: "2026-01-12T02:25:00.000Z" } },
     });
     // 4 °C = 39.2 °F.
-    expect(screen.getByText(/^Back to normal 02/).textContent).toBe("Back to normal 02:25: Back above the frost alert temperature (39.2 °F)");
+    expect(screen.getByText(/^Back to normal/, { selector: "p" }).textContent).toBe("Back to normal 02:25: Back above the frost alert temperature (39.2 °F)");
     expect(screen.queryByRole("button", { name: "Acknowledge" })).toBeNull();
     expect(screen.getByText(/E-mails: 1 of 1 sent/).closest("details")!.open).toBe(false);
   });
