@@ -1,6 +1,7 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
+import { useRouter } from "next/navigation";
 import { useState, type ReactNode } from "react";
 import { useForm, useWatch, type FieldPath, type Resolver, type UseFormRegister } from "react-hook-form";
 import { HeaterSafetyNote } from "@/components/safety/HeaterSafetyNote";
@@ -32,11 +33,12 @@ function rulesResolver(unit: "c" | "f"): Resolver<RulesDraft, unknown, AlertRule
 }
 
 const round1 = (n: number) => (Number.isFinite(n) ? String(Math.round(n * 10) / 10) : "…");
-const minutes = (n: number) => (Number.isFinite(n) ? `${n} min` : "… min");
+const minutes = (n: number) => (Number.isFinite(n) ? `${n}\u00a0min` : "…\u00a0min");
 
 /** One house's alert rules: each rule with its unit, its switch, and in words how it opens and closes. */
 export function AlertRulesForm({ siteId, house, canEdit }: Props) {
   const unit = useTemperatureUnit();
+  const router = useRouter();
   const sym = unitSymbol(unit);
   const [serverError, setServerError] = useState<string | null>(null);
   const [status, setStatus] = useState<string | null>(null);
@@ -63,6 +65,7 @@ export function AlertRulesForm({ siteId, house, canEdit }: Props) {
     }
     reset(draftOf(result.data.house.rules, unit, house.lowLimitC));
     setStatus(`Saved. The controller uses these rules for ${house.name} from now on.`);
+    router.refresh();
   });
 
   const err = (path: string) => path.split(".").reduce<unknown>((o, k) => (o as Record<string, unknown> | undefined)?.[k], errors) as { message?: string } | undefined;
@@ -78,11 +81,10 @@ export function AlertRulesForm({ siteId, house, canEdit }: Props) {
           {status}
         </p>
       ) : null}
-      {!house.saved ? <p className="text-sm text-frost-600">This house has the default rules.</p> : null}
       <fieldset disabled={!canEdit} className="flex flex-col gap-4">
-        <Rule title="Frost risk" always words={`Opens only after the temperature has stayed below ${round1(frostAt)} ${sym} for ${minutes(d.frost?.holdMin)} (minimum duration); closes once back above ${round1(frostAt + h)} ${sym} (hysteresis). Always on, and sent to everyone at any hour.`}>
+        <Rule title="Frost risk" always words={`Opens only after the temperature has stayed below ${round1(frostAt)}\u00a0${sym} for ${minutes(d.frost?.holdMin)} (minimum duration); closes once back above ${round1(frostAt + h)}\u00a0${sym} (hysteresis). Sent to everyone, at any hour.`}>
           <div className="flex flex-col gap-2" role="radiogroup" aria-label="Frost alert temperature">
-            <Choice register={register} name="frostFollows" value="house" label={`Follow the house’s frost limit (${round1(houseFrost)} ${sym})`} />
+            <Choice register={register} name="frostFollows" value="house" label={`Follow the house’s frost limit (${round1(houseFrost)}\u00a0${sym})`} />
             <Choice register={register} name="frostFollows" value="own" label="Its own temperature" />
           </div>
           <div className="grid gap-4 sm:grid-cols-2">
@@ -91,7 +93,7 @@ export function AlertRulesForm({ siteId, house, canEdit }: Props) {
           </div>
         </Rule>
 
-        <Rule title="Too warm" toggle={<Toggle register={register} name="tooWarm.enabled" rule="Too warm" />} words={`Opens only after the temperature has stayed above ${round1(d.tooWarm?.aboveC)} ${sym} for ${minutes(d.tooWarm?.holdMin)} (minimum duration); closes once back below ${round1(d.tooWarm?.aboveC - h)} ${sym} (hysteresis).`}>
+        <Rule title="Too warm" toggle={<Toggle register={register} name="tooWarm.enabled" rule="Too warm" />} words={`Opens only after the temperature has stayed above ${round1(d.tooWarm?.aboveC)}\u00a0${sym} for ${minutes(d.tooWarm?.holdMin)} (minimum duration); closes once back below ${round1(d.tooWarm?.aboveC - h)}\u00a0${sym} (hysteresis).`}>
           <div className="grid gap-4 sm:grid-cols-2">
             {num("tooWarm.aboveC", "Too warm above", sym)}
             {num("tooWarm.holdMin", "Minimum duration", "min", undefined, 1)}
@@ -106,7 +108,7 @@ export function AlertRulesForm({ siteId, house, canEdit }: Props) {
           {num("sensorSilent.afterMin", "Silent after", "min", undefined, 1)}
         </Rule>
 
-        <Rule title="Sensor battery low" toggle={<Toggle register={register} name="batteryLow.enabled" rule="Sensor battery low" />} words={`Opens when a sensor reports less than ${round1(d.batteryLow?.belowPercent)} %; closes once it reports ${BATTERY_HYSTERESIS_PERCENT} points more (hysteresis).`}>
+        <Rule title="Sensor battery low" toggle={<Toggle register={register} name="batteryLow.enabled" rule="Sensor battery low" />} words={`Opens when a sensor reports less than ${round1(d.batteryLow?.belowPercent)}\u00a0%; closes once it reports ${BATTERY_HYSTERESIS_PERCENT} points more (hysteresis).`}>
           {num("batteryLow.belowPercent", "Battery below", "%")}
         </Rule>
 
@@ -121,7 +123,7 @@ export function AlertRulesForm({ siteId, house, canEdit }: Props) {
         <Rule
           title="Condensation risk"
           toggle={<Toggle register={register} name="condensation.enabled" rule="Condensation risk" />}
-          words={`Opens only after the air has stayed within ${round1(d.condensation?.dewMarginK)} ${sym} of its dew point for ${minutes(d.condensation?.holdMin)}, or humidity at or above ${round1(d.condensation?.humidAboveRh)} % for ${round1(d.condensation?.humidHours)} h (minimum duration); closes once humidity is back below ${round1(d.condensation?.humidAboveRh - d.condensation?.hysteresisRh)} % (hysteresis).`}
+          words={`Opens only after the air has stayed within ${round1(d.condensation?.dewMarginK)}\u00a0${sym} of its dew point for ${minutes(d.condensation?.holdMin)}, or humidity at or above ${round1(d.condensation?.humidAboveRh)}\u00a0% for ${round1(d.condensation?.humidHours)}\u00a0h (minimum duration); closes once humidity is back below ${round1(d.condensation?.humidAboveRh - d.condensation?.hysteresisRh)}\u00a0% (hysteresis).`}
         >
           <div className="grid gap-4 sm:grid-cols-2">
             {num("condensation.dewMarginK", "Margin to the dew point", `${sym} difference`)}
@@ -132,7 +134,7 @@ export function AlertRulesForm({ siteId, house, canEdit }: Props) {
           </div>
         </Rule>
 
-        <Rule title="Heater on for a long time" toggle={<Toggle register={register} name="heaterLongOn.enabled" rule="Heater on for a long time" />} words={`Opens when a heater has been on without a break for ${round1(d.heaterLongOn?.afterHours)} h (a door left open, a faulty heater, a house losing heat); closes when it switches off.`}>
+        <Rule title="Heater on for a long time" toggle={<Toggle register={register} name="heaterLongOn.enabled" rule="Heater on for a long time" />} words={`Opens when a heater has been on without a break for ${round1(d.heaterLongOn?.afterHours)}\u00a0h (a door left open, a faulty heater, a house losing heat); closes when it switches off.`}>
           {num("heaterLongOn.afterHours", "On longer than", "h")}
           <HeaterSafetyNote />
         </Rule>

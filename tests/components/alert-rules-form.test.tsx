@@ -4,10 +4,12 @@
 import { cleanup, fireEvent, render, screen, waitFor } from "@testing-library/react";
 import { http, HttpResponse } from "msw";
 import { setupServer } from "msw/node";
-import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from "vitest";
 import { AlertRulesForm } from "@/components/alerts/AlertRulesForm";
 import { TemperatureUnitProvider } from "@/components/site/TemperatureUnit";
 import { DEFAULT_ALERT_RULES, type AlertRules } from "@/lib/alerts/rules";
+
+vi.mock("next/navigation", () => ({ useRouter: () => ({ refresh: vi.fn() }) }));
 
 const SITE = "5b1e7c1a-1111-4c4c-8888-000000000001";
 const HOUSE = "5b1e7c1a-2222-4c4c-8888-000000000002";

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { AlertPages } from "@/components/alerts/AlertPages";
 import { AlertRulesForm } from "@/components/alerts/AlertRulesForm";
+import { HouseRulesPanel } from "@/components/alerts/HouseRulesPanel";
 import { SummaryTimeForm } from "@/components/alerts/SummaryTimeForm";
 import { Section } from "@/components/setup/Section";
 import { getAlertRulesBySite } from "@/db/queries/alert-rules";
@@ -37,9 +38,9 @@ export default async function AlertRulesPage({ params }: Props) {
 
       {houses.length === 0 ? <p className="text-sm text-frost-700">This site has no houses yet. Each house gets its rules once it is added.</p> : null}
       {houses.map((house) => (
-        <Section key={house.houseId} id={`house-${house.houseId}`} title={house.name}>
+        <HouseRulesPanel key={house.houseId} houseId={house.houseId} name={house.name} saved={house.saved} open={houses.length === 1}>
           <AlertRulesForm siteId={site.id} house={house} canEdit={canEdit} />
-        </Section>
+        </HouseRulesPanel>
       ))}
 
       <Section title="Daily summary">
