@@ -81,6 +81,7 @@ export function AlertRulesForm({ siteId, house, canEdit }: Props) {
           {status}
         </p>
       ) : null}
+      {!canEdit ? <p className="text-sm text-frost-600">Owners and growers change these rules; you can read them here.</p> : null}
       <fieldset disabled={!canEdit} className="flex flex-col gap-4">
         <Rule title="Frost risk" always words={`Opens only after the temperature has stayed below ${round1(frostAt)}\u00a0${sym} for ${minutes(d.frost?.holdMin)} (minimum duration); closes once back above ${round1(frostAt + h)}\u00a0${sym} (hysteresis). Sent to everyone, at any hour.`}>
           <div className="flex flex-col gap-2" role="radiogroup" aria-label="Frost alert temperature">
@@ -160,9 +161,7 @@ export function AlertRulesForm({ siteId, house, canEdit }: Props) {
           </Button>
           {isDirty ? <p className="self-center text-sm text-frost-600">Not saved yet.</p> : null}
         </div>
-      ) : (
-        <p className="text-sm text-frost-600">Owners and growers change these rules.</p>
-      )}
+      ) : null}
     </form>
   );
 }

@@ -100,7 +100,7 @@ describe("AlertRulesForm in °F", () => {
     renderForm(false);
     expect(screen.getByLabelText(/^Too warm above \(°F\)/).matches(":disabled")).toBe(true);
     expect(screen.queryByRole("button", { name: /Save rules/ })).toBeNull();
-    expect(screen.getByText("Owners and growers change these rules.")).toBeTruthy();
+    expect(screen.getByText("Owners and growers change these rules; you can read them here.")).toBeTruthy();
   });
 
   it("keeps the heater caution beside the heater rule", () => {
