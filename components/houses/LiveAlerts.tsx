@@ -21,7 +21,7 @@ function Raised({ alert, now, timeZone }: { alert: AlertLiveJson; now: Date; tim
  * quiet note when live updates have stopped coming. Spaces itself from what is above,
  * so that it takes no room when there is nothing to say.
  */
-export function SiteAlerts({ names }: { names: Names }) {
+export function SiteAlerts({ names, alertsHref }: { names: Names; alertsHref?: string }) {
   const live = useSiteLive();
   const now = useNow();
   if (!live) return null;
@@ -75,6 +75,11 @@ export function SiteAlerts({ names }: { names: Names }) {
                 );
               })}
             </ul>
+            {alertsHref ? (
+              <a href={alertsHref} className="mt-1 inline-flex min-h-11 items-center text-sm font-medium text-soil-900 underline underline-offset-2">
+                See all alerts and who was told
+              </a>
+            ) : null}
           </div>
         ) : null}
       </section>

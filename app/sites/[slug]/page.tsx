@@ -48,7 +48,7 @@ export default async function HousesPage({ params }: Props) {
             ) : null}
           </div>
           <ControllerBanner />
-          <SiteAlerts names={names} />
+          <SiteAlerts names={names} alertsHref={`/sites/${site.slug}/alerts`} />
         </div>
 
         {houses.length === 0 ? (

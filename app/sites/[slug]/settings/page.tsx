@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { PageTitle } from "@/components/setup/PageTitle";
 import { Section } from "@/components/setup/Section";
 import { SiteSettingsForm } from "@/components/setup/SiteSettingsForm";
@@ -35,6 +36,9 @@ export default async function SettingsPage({ params }: Props) {
       <Section title="Your settings">
         <p className="text-sm text-frost-600">Yours alone, the same in every site you belong to.</p>
         <UnitForm />
+        <Link href={`/sites/${site.slug}/alerts/mine`} className="inline-flex min-h-11 items-center self-start text-sm font-medium text-leaf-800 underline underline-offset-2">
+          My alert e-mails for this site
+        </Link>
       </Section>
       <Section title="Site settings">
         {can(site.role, "site.edit") ? (
@@ -52,6 +56,9 @@ export default async function SettingsPage({ params }: Props) {
             <p className="text-xs text-frost-600">Only the site’s owners change these.</p>
           </>
         )}
+        <Link href={`/sites/${site.slug}/alerts/settings`} className="inline-flex min-h-11 items-center self-start text-sm font-medium text-leaf-800 underline underline-offset-2">
+          Alert rules and the daily summary time
+        </Link>
       </Section>
     </div>
   );
