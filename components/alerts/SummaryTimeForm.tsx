@@ -7,7 +7,8 @@ import { FormShell } from "@/components/setup/FormShell";
 import { Field } from "@/components/ui/Field";
 import { TextInput } from "@/components/ui/TextInput";
 import { placeFieldErrors, sendJson } from "@/lib/client/api";
-import { summaryCovers, summaryTimeSchema, type SummaryTime } from "@/lib/schemas/alert-summary";
+import { summaryCovers } from "@/lib/alerts/summary-covers";
+import { summaryTimeSchema, type SummaryTime } from "@/lib/schemas/alert-summary";
 
 type Draft = { send: boolean; summaryTime: string };
 

@@ -8,6 +8,7 @@ import { DateTime } from "luxon";
 import { ALERT_KIND_LABELS, type AlertKind, type TemperatureUnit } from "@/lib/domain";
 import { formatKwh, formatMoney } from "@/lib/tariffs/money";
 import { formatTemperature } from "@/lib/units";
+import { YESTERDAY_BEFORE_HOUR } from "./summary-covers";
 import { localDay, localTime, renderMail, type MailBlock, type RenderedMail } from "./mail-text";
 
 export type SummaryWindow = {
@@ -33,7 +34,7 @@ export function summaryWindowAt(now: Date, zone: string, summaryTime: string | n
   const hour = Number(match[1]);
   const sendAt = DateTime.fromObject({ year: today.year, month: today.month, day: today.day, hour, minute: Number(match[2]) }, { zone });
   if (local < sendAt) return null;
-  if (hour < 12) {
+  if (hour < YESTERDAY_BEFORE_HOUR) {
     const yesterday = today.minus({ days: 1 });
     return { day: yesterday.toISODate()!, from: yesterday.toJSDate(), to: today.toJSDate(), wholeDay: true };
   }

@@ -10,8 +10,3 @@ export const summaryTimeSchema = z.object({
   summaryTime: timeOfDay("Summary time").nullable(),
 });
 export type SummaryTime = z.infer<typeof summaryTimeSchema>;
-
-/** What a summary sent at this time covers, in words. */
-export function summaryCovers(time: string): string {
-  return time < "12:00" ? "yesterday, the whole day" : "today so far";
-}

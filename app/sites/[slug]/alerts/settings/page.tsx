@@ -7,7 +7,7 @@ import { SummaryTimeForm } from "@/components/alerts/SummaryTimeForm";
 import { Section } from "@/components/setup/Section";
 import { getAlertRulesBySite } from "@/db/queries/alert-rules";
 import { getSummaryTime } from "@/db/queries/summary-time";
-import { summaryCovers } from "@/lib/schemas/alert-summary";
+import { summaryCovers } from "@/lib/alerts/summary-covers";
 import { can } from "@/lib/permissions";
 import { getCurrentSite } from "../../current-site";
 
