@@ -83,7 +83,7 @@ export function AlertRulesForm({ siteId, house, canEdit }: Props) {
       ) : null}
       {!canEdit ? <p className="text-sm text-frost-600">Owners and growers change these rules; you can read them here.</p> : null}
       <fieldset disabled={!canEdit} className="flex flex-col gap-4">
-        <Rule title="Frost risk" always words={`Opens only after the temperature has stayed below ${round1(frostAt)}\u00a0${sym} for ${minutes(d.frost?.holdMin)} (minimum duration); closes once back above ${round1(frostAt + h)}\u00a0${sym} (hysteresis). Sent to everyone, at any hour.`}>
+        <Rule title="Frost risk" always words={`Opens only after the temperature has stayed at or below ${round1(frostAt)}\u00a0${sym} for ${minutes(d.frost?.holdMin)} (minimum duration); closes once back above ${round1(frostAt + h)}\u00a0${sym} (hysteresis). Sent to everyone, at any hour.`}>
           <div className="flex flex-col gap-2" role="radiogroup" aria-label="Frost alert temperature">
             <Choice register={register} name="frostFollows" value="house" label={`Follow the house’s frost limit (${round1(houseFrost)}\u00a0${sym})`} />
             <Choice register={register} name="frostFollows" value="own" label="Its own temperature" />
@@ -101,7 +101,7 @@ export function AlertRulesForm({ siteId, house, canEdit }: Props) {
           </div>
         </Rule>
 
-        <Rule title="Temperature hysteresis" words="How far back past its limit a temperature must come before a frost or too-warm alert closes, so a reading wavering at the limit sends one message, not one per crossing.">
+        <Rule title="Temperature hysteresis" words="How far back past its limit a temperature must come before a frost, too-warm or near-dew-point alert closes, so a reading wavering at the limit sends one message, not one per crossing.">
           {num("hysteresisK", "Hysteresis", `${sym} difference`, `A difference: 0–5 K (0–9 °F).`)}
         </Rule>
 
@@ -124,7 +124,7 @@ export function AlertRulesForm({ siteId, house, canEdit }: Props) {
         <Rule
           title="Condensation risk"
           toggle={<Toggle register={register} name="condensation.enabled" rule="Condensation risk" />}
-          words={`Opens only after the air has stayed within ${round1(d.condensation?.dewMarginK)}\u00a0${sym} of its dew point for ${minutes(d.condensation?.holdMin)}, or humidity at or above ${round1(d.condensation?.humidAboveRh)}\u00a0% for ${round1(d.condensation?.humidHours)}\u00a0h (minimum duration); closes once humidity is back below ${round1(d.condensation?.humidAboveRh - d.condensation?.hysteresisRh)}\u00a0% (hysteresis).`}
+          words={`Opens only after the air has stayed within ${round1(d.condensation?.dewMarginK)}\u00a0${sym} of its dew point for ${minutes(d.condensation?.holdMin)}, or humidity at or above ${round1(d.condensation?.humidAboveRh)}\u00a0% for ${round1(d.condensation?.humidHours)}\u00a0h (minimum duration); closes once the air is more than ${round1(d.condensation?.dewMarginK + h)}\u00a0${sym} above its dew point and humidity is back below ${round1(d.condensation?.humidAboveRh - d.condensation?.hysteresisRh)}\u00a0% (hysteresis).`}
         >
           <div className="grid gap-4 sm:grid-cols-2">
             {num("condensation.dewMarginK", "Margin to the dew point", `${sym} difference`)}

@@ -56,7 +56,7 @@ describe("AlertRulesForm in °F", () => {
     type(/^Hysteresis \(°F difference\)/, "1.8");
     // The words follow: 95 °F less a 1.8 °F hysteresis.
     expect(await screen.findByText(/closes once back below 93\.2 °F \(hysteresis\)/)).toBeTruthy();
-    expect(screen.getByText(/stayed below 34 °F for 2 min \(minimum duration\); closes once back above 35\.8 °F/)).toBeTruthy();
+    expect(screen.getByText(/stayed at or below 34 °F for 2 min \(minimum duration\); closes once back above 35\.8 °F/)).toBeTruthy();
 
     fireEvent.click(screen.getByRole("button", { name: "Save rules for Glasshouse" }));
     await waitFor(() => expect(sent).toHaveLength(1));
