@@ -1,7 +1,8 @@
 // Next.js runs register() once when the server starts. It starts the alert notifier
 // (lib/server/alerts/notifier.ts) in the Node.js runtime, unless CLOCHE_NOTIFIER=off.
 // A failure here must not break the app: it is logged, and pages and handlers run on
-// without e-mailed alerts.
+// without e-mailed alerts. CLOCHE_NOTIFIER is read straight from the environment here
+// (lib/server/env.ts validates it with the rest when the app first reads its settings).
 export async function register() {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
   if (process.env.CLOCHE_NOTIFIER === "off") {

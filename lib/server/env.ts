@@ -26,6 +26,8 @@ const schema = z.object({
    * only; /dev/mail shows its messages and is a 404 without it.
    */
   CLOCHE_MAIL_SINK_DIR: z.string().min(1).optional(),
+  /** "off" keeps this process from e-mailing alerts and summaries (instrumentation.ts). */
+  CLOCHE_NOTIFIER: z.enum(["on", "off"], { error: "CLOCHE_NOTIFIER must be on or off" }).default("on"),
 }).refine((e) => !e.CLOCHE_MAIL_SINK_DIR || (e.CLOCHE_SMTP_URL !== undefined && isLoopbackSmtp(e.CLOCHE_SMTP_URL)), {
   path: ["CLOCHE_MAIL_SINK_DIR"],
   message: "CLOCHE_MAIL_SINK_DIR is for the local mail sink: CLOCHE_SMTP_URL must then point at 127.0.0.1, ::1 or localhost",
