@@ -80,7 +80,8 @@ describe("alerts", () => {
     await page.goto(`/sites/${DEMO_SITE.slug}/alerts/settings`);
     const panel = page.getByRole("region", { name: houseName });
     // On a desk the panels may open folded: open this one.
-    if ((await panel.locator("details").getAttribute("open")) === null) await panel.locator("summary").click();
+    const fold = panel.locator("details").first();
+    if ((await fold.getAttribute("open")) === null) await fold.locator("summary").first().click();
     await panel.getByLabel("Too warm above").fill("30");
     await panel.getByRole("button", { name: /^Save rules for/ }).click();
     await expect.poll(async () => {
