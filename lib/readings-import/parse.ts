@@ -182,8 +182,9 @@ export async function parseReadings(
 
     // Humidity, optional: an empty cell is no humidity.
     let rh: number | null = null;
-    if (rhAt !== null && (record[rhAt] ?? "").trim() !== "") {
-      const value = readNumber(record[rhAt]!, options.decimal);
+    const rhText = rhAt === null ? "" : (record[rhAt as number] ?? "");
+    if (rhText.trim() !== "") {
+      const value = readNumber(rhText, options.decimal);
       if (typeof value === "string") reasons.push(`humidity ${value}`);
       else if (value < 0 || value > 100) reasons.push(`humidity ${value} % is outside 0 to 100 %`);
       else rh = value;
