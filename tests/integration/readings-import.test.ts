@@ -38,7 +38,7 @@ function send(
   const request = new Request(`${BASE}/api/sites/${site}/sensors/${sensorId}/import?${query}`, {
     method: "POST",
     headers: { origin: BASE, cookie, "content-type": "text/csv", ...(accept ? { accept } : {}) },
-    body: file,
+    body: file as BodyInit,
   });
   return (handler as (r: Request, c: { params: Promise<Record<string, string>> }) => Promise<Response>)(request, { params: Promise.resolve({ siteId: site, sensorId }) });
 }
