@@ -21,6 +21,16 @@ const FIELDS = ["timeColumn", "temperatureColumn", "humidityColumn", "dateFormat
 const MB = 1024 * 1024;
 const count = (n: number) => n.toLocaleString("en-GB");
 
+/** A blob's bytes (FileReader: every browser has it, and so does jsdom). */
+function bytesOf(blob: Blob): Promise<Uint8Array> {
+  return new Promise((resolve, reject) => {
+    const reader = new FileReader();
+    reader.onload = () => resolve(new Uint8Array(reader.result as ArrayBuffer));
+    reader.onerror = () => reject(reader.error ?? new Error("The file could not be read."));
+    reader.readAsArrayBuffer(blob);
+  });
+}
+
 function zones(siteZone: string): string[] {
   const all = (Intl as unknown as { supportedValuesOf?: (key: string) => string[] }).supportedValuesOf?.("timeZone") ?? [];
   return [...new Set([siteZone, "UTC", ...all])];
@@ -74,7 +84,7 @@ export function ReadingImport({ siteId, siteZone, sensors, sensorId: initialSens
       return;
     }
     // The start of the file is enough for the columns and the guesses; cut at a line end.
-    const start = new Uint8Array(await chosen.slice(0, 64 * 1024).arrayBuffer());
+    const start = await bytesOf(chosen.slice(0, 64 * 1024));
     const cut = chosen.size > start.length ? start.lastIndexOf(0x0a) + 1 : start.length;
     const checked = readCsvFile(start.subarray(0, cut || start.length), { partial: true });
     if (!checked.ok) {
