@@ -109,7 +109,10 @@ export function ReadingImport({ siteId, siteZone, sensors, sensorId: initialSens
   const run = (step: "preview" | "import") =>
     handleSubmit(async (options) => {
       if (!file || !sensorId) return;
+      const shown = preview;
       clearOutcome();
+      // The preview stays in sight while its import runs.
+      if (step === "import") setPreview(shown);
       setProgress({ stage: "sending", done: 0, total: file.size });
       const url = `/api/sites/${siteId}/sensors/${sensorId}/import${step === "preview" ? "/preview" : ""}`;
       const query = { ...options, fileName: file.name };
@@ -122,6 +125,7 @@ export function ReadingImport({ siteId, siteZone, sensors, sensorId: initialSens
       }
       const result = await sendImport<Imported>(url, file, query, setProgress);
       setProgress(null);
+      setPreview(null);
       if (!result.ok) return refused(result);
       const { rowsRead, minutesAdded, minutesAlreadyThere, note } = result.data.import;
       setDone(
@@ -230,13 +234,6 @@ export function ReadingImport({ siteId, siteZone, sensors, sensorId: initialSens
         </fieldset>
       ) : null}
 
-      {progress ? (
-        <div className="flex flex-col gap-1.5" aria-live="polite">
-          <progress className="h-4 w-full accent-leaf-700" value={progress.done} max={Math.max(progress.total, 1)} aria-label="Import progress" />
-          <p className="text-sm text-frost-700">{progressWords(progress)}</p>
-        </div>
-      ) : null}
-
       {error ? (
         <Notice tone="error">
           <p>{error}</p>
@@ -259,10 +256,17 @@ export function ReadingImport({ siteId, siteZone, sensors, sensorId: initialSens
 
       {preview ? <ImportPreview preview={preview} siteZone={siteZone} /> : null}
 
+      {progress ? (
+        <div className="flex flex-col gap-1.5" aria-live="polite">
+          <progress className="h-4 w-full accent-leaf-700" value={progress.done} max={Math.max(progress.total, 1)} aria-label="Import progress" />
+          <p className="text-sm text-frost-700">{progressWords(progress)}</p>
+        </div>
+      ) : null}
+
       {file ? (
         <div className="flex flex-wrap gap-2">
-          <Button variant={preview ? "secondary" : "primary"} pending={busy && !preview} pendingLabel="Working…" onClick={() => void run("preview")} disabled={busy}>
-            Check the file
+          <Button variant={preview ? "secondary" : "primary"} pending={busy && !preview} pendingLabel="Checking…" onClick={() => void run("preview")} disabled={busy}>
+            {preview ? "Check again" : "Check the file"}
           </Button>
           {preview && preview.bad === 0 ? (
             <Button pending={busy} pendingLabel="Importing…" onClick={() => void run("import")}>
