@@ -4,7 +4,7 @@
 // and the imported minutes in the house chart and the degree-days.
 import { randomUUID } from "node:crypto";
 import { and, count, eq, gte, lt } from "drizzle-orm";
-import { beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "@/db/client";
 import { getDegreeDayReport } from "@/db/queries/degree-days";
 import { getHouseChart } from "@/db/queries/house-chart";
@@ -23,6 +23,8 @@ const HOUR = 3_600_000;
 let owner: Account;
 let siteId: string;
 let houseId: string;
+/** The house of the tests' own loggers, apart from the one charted and reported on below. */
+let benchHouseId: string;
 let insideId: string;
 let outsideId: string;
 
@@ -64,18 +66,27 @@ beforeAll(async () => {
   siteId = listed.sites[0]!.id;
   await db.update(sites).set({ timeZone: "Europe/London" }).where(eq(sites.id, siteId));
   houseId = randomUUID();
+  benchHouseId = randomUUID();
   insideId = randomUUID();
   outsideId = randomUUID();
   await db.insert(houses).values({ id: houseId, siteId, name: "Propagation", kind: "glasshouse", lengthM: 6, widthM: 3, eaveHeightM: 2, ridgeHeightM: 2.8, glazing: "single_glass" });
+  await db.insert(houses).values({ id: benchHouseId, siteId, name: "Bench tests", kind: "polytunnel", lengthM: 6, widthM: 3, eaveHeightM: 2, ridgeHeightM: 2.8, glazing: "single_glass" });
   await db.insert(sensors).values([
     { id: insideId, siteId, houseId, deviceId: `in-${insideId.slice(0, 6)}`, name: "Bench air", placement: "inside" },
     { id: outsideId, siteId, houseId, deviceId: `out-${outsideId.slice(0, 6)}`, name: "North wall", placement: "outside" },
   ]);
 });
 
+// The files share one database: the test's own site and the demo site's probe go, with their minutes and imports.
+const probes: string[] = [];
+afterAll(async () => {
+  for (const id of probes) await db.delete(sensors).where(eq(sensors.id, id));
+  await db.delete(sites).where(eq(sites.id, siteId));
+});
+
 async function freshSensor(placement: "inside" | "outside" = "inside") {
   const id = randomUUID();
-  await db.insert(sensors).values({ id, siteId, houseId, deviceId: `s-${id.slice(0, 8)}`, name: `Logger ${id.slice(0, 4)}`, placement });
+  await db.insert(sensors).values({ id, siteId, houseId: benchHouseId, deviceId: `s-${id.slice(0, 8)}`, name: `Logger ${id.slice(0, 4)}`, placement });
   return id;
 }
 
@@ -293,7 +304,9 @@ describe("imported readings in the charts and the degree-days", () => {
     const outside = csv(dayStart, 2 * 1440, { line: (t, i) => `${t},${(i % 1440) < 720 ? 0 : 10},80` });
     expect((await send(importRoute.POST, { sensorId: outsideId, file: outside })).status).toBe(201);
     const report = await getDegreeDayReport({ siteId, fromDay: "2026-11-01", toDay: "2026-11-03" });
-    const days = report.houses.find((h) => h.id === houseId)!.days;
+    const reported = report.houses.find((h) => h.id === houseId)!;
+    expect(reported.outsideSensor).toMatchObject({ id: outsideId, onThisHouse: true });
+    const days = reported.days;
     // The days' lowest, highest and mean come from the imported minutes; the third day has none (missing, not 0).
     expect(days.map((d) => d.outside && { min: d.outside.minC, max: d.outside.maxC, mean: d.outside.meanC })).toEqual([
       { min: 0, max: 10, mean: 5 },
@@ -314,6 +327,7 @@ describe("who may import", () => {
   it("an owner or grower imports; a helper and a viewer are refused (403) and nothing is written", async () => {
     await seedDemo(db);
     const sensorId = randomUUID();
+    probes.push(sensorId);
     await db.insert(sensors).values({ id: sensorId, siteId: DEMO_SITE.id, houseId: demoId("house:glass"), deviceId: `imp-${sensorId.slice(0, 6)}`, name: "Import probe" });
     const file = csv(Date.UTC(2026, 0, 20, 8), 5);
     const roles: Record<string, number> = { helper: 403, viewer: 403, grower: 201 };
