@@ -1,5 +1,7 @@
 // The pure reading of a thermometer app's CSV: the file checks, each date format, the
 // zone's clock changes, units and decimal commas, and the per-row problems.
+import { readFileSync } from "node:fs";
+import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { readCsvFile, type CsvFile } from "@/lib/readings-import/file";
 import { readTime } from "@/lib/readings-import/formats";
@@ -207,5 +209,31 @@ describe("the form's guesses", () => {
     expect(guessOptions(f, sampleRows(f))).toEqual({ timeColumn: "Date/Time", temperatureColumn: "Temperature (°F)", humidityColumn: "Humidity (%)", dateFormat: "dmy_dot", unit: "f", decimal: "," });
     const us = file("timestamp,temp_c\n03/14/2026 18:05,20.5\n03/15/2026 18:05,20.5\n");
     expect(guessOptions(us, sampleRows(us))).toMatchObject({ timeColumn: "timestamp", temperatureColumn: "temp_c", humidityColumn: "", dateFormat: "mdy_slash", unit: "c", decimal: "." });
+  });
+});
+
+describe("a logger's own export (tests/fixtures/readings-import)", () => {
+  it("reads a BOM, CRLF, semicolon, decimal-comma file across the night the clocks go back in Berlin", async () => {
+    // Europe/Berlin, 25 October 2026: 03:00 CEST back to 02:00 CET at 01:00 UTC (IANA
+    // tz database, "europe" file, Rule EU), so 02:00–02:59 happens twice.
+    const bytes = new Uint8Array(readFileSync(path.join(process.cwd(), "tests/fixtures/readings-import/logger-berlin-clocks-back.csv")));
+    const checked = readCsvFile(bytes);
+    if (!checked.ok) throw new Error(checked.message);
+    const guess = guessOptions(checked, sampleRows(checked));
+    expect(guess).toEqual({ timeColumn: "Datum Uhrzeit", temperatureColumn: "Temperatur[°C]", humidityColumn: "Luftfeuchte[%RH]", dateFormat: "dmy_dot", unit: "c", decimal: "," });
+    const result = await parseReadings(checked, { ...guess, timeZone: "Europe/Berlin" }, { now: NOW });
+    if (!result.ok) throw new Error(result.message);
+    expect(result).toMatchObject({ rows: 7, good: 7, bad: 0, repeatedHour: { rows: 4, dates: ["2026-10-25"] } });
+    expect(result.minutes.minute.map((m) => new Date(m).toISOString().slice(0, 16))).toEqual([
+      "2026-10-24T23:30",
+      "2026-10-25T00:00",
+      "2026-10-25T00:30",
+      "2026-10-25T01:00",
+      "2026-10-25T01:30",
+      "2026-10-25T02:00",
+      "2026-10-25T02:30",
+    ]);
+    expect(result.minutes.mean).toEqual([6.4, 6.1, 5.9, 5.7, 5.6, 5.5, -0.5]);
+    expect(result.minutes.rhMean.at(-1)).toBe(93);
   });
 });
