@@ -1,6 +1,7 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
+import { useRouter } from "next/navigation";
 import { useMemo, useState } from "react";
 import { useForm } from "react-hook-form";
 import { Button } from "@/components/ui/Button";
@@ -42,6 +43,7 @@ function zones(siteZone: string): string[] {
  * be imported with every bad row named, then the import itself, with progress.
  */
 export function ReadingImport({ siteId, siteZone, sensors, sensorId: initialSensor }: { siteId: string; siteZone: string; sensors: ImportSensorChoice[]; sensorId?: string }) {
+  const router = useRouter();
   const [sensorId, setSensorId] = useState(initialSensor ?? sensors[0]?.id ?? "");
   const [file, setFile] = useState<File | null>(null);
   const [header, setHeader] = useState<string[]>([]);
@@ -127,6 +129,8 @@ export function ReadingImport({ siteId, siteZone, sensors, sensorId: initialSens
       setProgress(null);
       setPreview(null);
       if (!result.ok) return refused(result);
+      // The list of earlier imports below the form.
+      router.refresh();
       const { rowsRead, minutesAdded, minutesAlreadyThere, note } = result.data.import;
       setDone(
         `Imported ${file.name}: ${count(rowsRead)} rows read, ${count(minutesAdded)} new ${minutesAdded === 1 ? "minute" : "minutes"} added, ${count(minutesAlreadyThere)} already stored left as they were.${note ? ` ${note}` : ""}`,

@@ -4,9 +4,12 @@
 import { cleanup, fireEvent, render, screen, waitFor, within } from "@testing-library/react";
 import { http, HttpResponse } from "msw";
 import { setupServer } from "msw/node";
-import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from "vitest";
 import { ReadingImport } from "@/components/readings-import/ReadingImport";
 import { TemperatureUnitProvider } from "@/components/site/TemperatureUnit";
+
+const refresh = vi.fn();
+vi.mock("next/navigation", () => ({ useRouter: () => ({ push: vi.fn(), refresh }) }));
 
 const SITE = "5b1e7c1a-1111-4c4c-8888-000000000021";
 const SENSOR = "5b1e7c1a-1111-4c4c-8888-000000000022";
@@ -106,6 +109,7 @@ describe("ReadingImport", () => {
     fireEvent.click(screen.getByRole("button", { name: "Import 2 new minutes" }));
     await waitFor(() => expect(screen.getByRole("status").textContent).toContain("2 new minutes added"));
     expect(sent[1]!.url.pathname).toBe(`/api/sites/${SITE}/sensors/${OUTSIDE}/import`);
+    expect(refresh).toHaveBeenCalled();
   });
 
   it("lists the bad lines of the preview and offers no import", async () => {
