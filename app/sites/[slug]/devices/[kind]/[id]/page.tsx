@@ -100,6 +100,17 @@ export default async function DevicePage(props: Props) {
         </Section>
       ) : null}
 
+      {kind === "sensor" && can(site.role, "readings.import") ? (
+        <Section title="History from a file">
+          <p className="text-sm text-frost-700">
+            Readings this thermometer kept before Cloche heard it can be imported from the CSV file its own app exports.{" "}
+            <Link href={`/sites/${site.slug}/devices/import?sensor=${device.id}`} className="font-semibold text-leaf-800 underline">
+              Import readings from a file
+            </Link>
+          </p>
+        </Section>
+      ) : null}
+
       <Section title="Credential">
         <CredentialPanel
           url={url}
