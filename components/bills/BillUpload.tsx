@@ -2,7 +2,7 @@
 
 import { useId, useState, type FormEvent } from "react";
 import { Button } from "@/components/ui/Button";
-import { Notice } from "@/components/ui/Notice";
+import { FileRefusal } from "@/components/ui/FileRefusal";
 import { BILL_CSV_LIMITS } from "@/lib/schemas/bill";
 
 type Problem = { line: number; message: string };
@@ -57,20 +57,7 @@ export function BillUpload({ siteId, onSaved }: { siteId: string; onSaved: (mess
         accept=".csv,text/csv"
         className="block min-h-11 w-full text-sm text-frost-900 file:mr-3 file:min-h-11 file:rounded-lg file:border file:border-frost-300 file:bg-white file:px-4 file:font-semibold file:text-frost-900"
       />
-      {error ? (
-        <Notice tone="error">
-          <p>{error}</p>
-          {rows.length ? (
-            <ul className="mt-1 list-disc pl-5">
-              {rows.map((r) => (
-                <li key={r.line}>
-                  Line {r.line}: {r.message}
-                </li>
-              ))}
-            </ul>
-          ) : null}
-        </Notice>
-      ) : null}
+      {error ? <FileRefusal message={error} lines={rows} /> : null}
       <Button type="submit" className="self-start" pending={pending} pendingLabel="Reading…">
         Upload bills
       </Button>

@@ -6,7 +6,7 @@ import { useMemo, useState } from "react";
 import { useForm } from "react-hook-form";
 import { Button } from "@/components/ui/Button";
 import { Field } from "@/components/ui/Field";
-import { Notice } from "@/components/ui/Notice";
+import { FileRefusal } from "@/components/ui/FileRefusal";
 import { Select } from "@/components/ui/Select";
 import { readCsvFile, DELIMITER_NAMES } from "@/lib/readings-import/file";
 import { DATE_FORMATS, DATE_FORMAT_LABELS } from "@/lib/readings-import/formats";
@@ -238,20 +238,7 @@ export function ReadingImport({ siteId, siteZone, sensors, sensorId: initialSens
         </fieldset>
       ) : null}
 
-      {error ? (
-        <Notice tone="error">
-          <p>{error}</p>
-          {errorRows.length ? (
-            <ul className="mt-1 list-disc pl-5">
-              {errorRows.map((r) => (
-                <li key={r.line}>
-                  Line {r.line}: {r.message}
-                </li>
-              ))}
-            </ul>
-          ) : null}
-        </Notice>
-      ) : null}
+      {error ? <FileRefusal message={error} lines={errorRows} /> : null}
       {done ? (
         <p role="status" className="rounded-lg bg-leaf-50 px-3 py-2.5 text-sm text-leaf-800">
           {done}
