@@ -72,7 +72,10 @@ export function createAlertWatch(options: AlertWatchOptions) {
     let w = sensors.get(sensor.id);
     if (!w) {
       const latest = registry.reading(sensor.id);
-      const heardMs = latest && latest.tempC !== null ? latest.atMs : startedMs;
+      // Silence counts from this start at the earliest: while the controller was down nobody
+      // listened (that gap is the "control stopped" alert's), so each sensor gets its full
+      // limit to be heard again before it is called silent.
+      const heardMs = latest && latest.tempC !== null ? Math.max(latest.atMs, startedMs) : startedMs;
       w = { conditions: SENSOR_CLOSED, lastHeardMs: heardMs, subject: { siteId: sensor.siteId, houseId: sensor.houseId, sensorId: sensor.id }, generation: -1 };
       sensors.set(sensor.id, w);
     }
