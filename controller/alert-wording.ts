@@ -22,11 +22,11 @@ export function followDecisionAlerts(alerts: Alerts, runtime: PlugRuntime, decis
     alerts.raise("sensor_quiet", sensorSubject, `No fresh reading for ${name}${action}.`);
   }
   if (has("overload")) alerts.raise("overload", subject, `${name}: the appliance draws more than the plug may carry for hours; kept off.`);
-  else if (alerts.isOpen("overload", subject)) alerts.clear("overload", subject, `Back to normal: ${name} may carry its appliance again.`);
+  else if (alerts.isOpen("overload", subject)) alerts.clear("overload", subject, `${name} may carry its appliance again.`);
   if (has("too_hot")) alerts.raise("too_hot", subject, `${name}: at or above the house's high limit; heater kept off.`);
   else if (alerts.isOpen("too_hot", subject)) {
     const reading = decision.readingTempC === null ? {} : { valueC: decision.readingTempC };
-    alerts.clear("too_hot", subject, `Back to normal: ${name} is below the house's high limit again.`, reading);
+    alerts.clear("too_hot", subject, `${name} is below the house's high limit again.`, reading);
   }
 }
 

@@ -95,7 +95,7 @@ describe("the controller's alert rules", () => {
       return rows[0]?.clearedAt ? rows : undefined;
     }, 5000, "frost risk cleared");
     expect(cleared).toHaveLength(1);
-    expect(cleared[0]!.clearedMessage).toBe("Back to normal: Air in Test house is above the frost alert temperature again.");
+    expect(cleared[0]!.clearedMessage).toBe("Air in Test house is above the frost alert temperature again.");
     const detail = alertDetailFrom(cleared[0]!.detail);
     expect(detail.valueC).toBe(1.3);
     expect(detail.cleared).toMatchObject({ valueC: 2.6, rh: 60, batteryPercent: 90, at: new Date(clock).toISOString() });
@@ -162,7 +162,7 @@ describe("the controller's alert rules", () => {
       const rows = await since();
       return rows[0]?.clearedAt ? rows : undefined;
     }, 5000, "silence closed by a reading");
-    expect(back!.clearedMessage).toBe("Back to normal: Air in Test house is reporting again.");
+    expect(back!.clearedMessage).toBe("Air in Test house is reporting again.");
   });
 
   it("applies a rule saved in the house's alert rules as soon as the site is reloaded", async () => {
@@ -216,7 +216,7 @@ describe("the controller's alert rules", () => {
         return rows[0]?.clearedAt ? rows : undefined;
       }, 5000, "light online again");
       expect(back).toHaveLength(1);
-      expect(back[0]!.clearedMessage).toBe("Back to normal: Light in Test house is online again.");
+      expect(back[0]!.clearedMessage).toBe("Light in Test house is online again.");
     } finally {
       await light.close();
     }

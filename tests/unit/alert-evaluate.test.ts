@@ -81,7 +81,7 @@ describe("frost risk", () => {
       ["clear", 4],
     ]);
     const cleared = changes[1]!;
-    expect(cleared.message).toBe("Back to normal: Bench sensor in Long house is above the frost alert temperature again.");
+    expect(cleared.message).toBe("Bench sensor in Long house is above the frost alert temperature again.");
     expect(cleared.change === "clear" && cleared.cleared).toEqual({ at: new Date(T0 + 4 * MIN).toISOString(), valueC: 2.6, rh: 70, batteryPercent: 90 });
   });
 
@@ -186,7 +186,7 @@ describe("condensation risk", () => {
       ["condensation", "raise", 0],
       ["condensation", "clear", 32],
     ]);
-    expect(changes[1]!.message).toBe("Back to normal: the air at Bench sensor in Long house is drier again.");
+    expect(changes[1]!.message).toBe("The air at Bench sensor in Long house is drier again.");
   });
 });
 
