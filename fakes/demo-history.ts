@@ -1,6 +1,8 @@
 // The demo's past: the real schedule and decision code run against the thermal model
 // of each demo house over the last N simulated days, minute by minute, so that the
-// demo starts with readings and switches that follow from its own settings.
+// demo starts with readings and switches that follow from its own settings. The
+// houses' alert rules run over the same readings, so the alerts page starts with the
+// alerts those days would have raised (already past: nobody is e-mailed about them).
 //
 //   tsx fakes/demo-history.ts [days]     (DATABASE_URL; skipped when history exists)
 import path from "node:path";
@@ -8,7 +10,8 @@ import { fileURLToPath } from "node:url";
 import { createHash } from "node:crypto";
 import { count, inArray } from "drizzle-orm";
 import { connect, type Database } from "../db/client";
-import { meterSamples, plugStates, readingMinutes, readings, switchEvents } from "../db/schema";
+import { alerts, meterSamples, plugStates, readingMinutes, readings, switchEvents } from "../db/schema";
+import { evaluateReading, SENSOR_CLOSED, type SensorAlertContext, type SensorConditions } from "../lib/alerts/evaluate";
 import { rebuildEnergyDays } from "../db/energy-days";
 import { insertMany } from "../db/bulk";
 import { loadConfig, rulesOf } from "../controller/config";
@@ -22,7 +25,7 @@ const MINUTE = 60_000;
 const RAW_DAYS = 7;
 
 export type DemoHistoryOptions = { db: Database; site: string; days: number; endMs: number; seed?: number };
-export type DemoHistorySummary = { skipped: boolean; switches: number; minutes: number; raw: number; samples: number };
+export type DemoHistorySummary = { skipped: boolean; switches: number; minutes: number; raw: number; samples: number; alerts?: number };
 
 
 /** A stable command id for a historical switch, so a rerun cannot duplicate it. */
@@ -59,6 +62,16 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
     meterWh: 0,
   }));
   const sensorOfHouse = new Map(layout.sensors.filter((s) => s.placement === "inside").map((s) => [s.houseId, s.id]));
+  // Each inside sensor as the controller's alert rules see it, with its conditions.
+  const watched = new Map<string, { context: SensorAlertContext; conditions: SensorConditions }>();
+  for (const sensor of config.sensors) {
+    const house = config.houses.find((h) => h.id === sensor.houseId);
+    if (!house || sensor.placement !== "inside" || sensorOfHouse.get(house.id) !== sensor.id) continue;
+    const context = { id: sensor.id, name: sensor.name, outside: false, house: { id: house.id, name: house.name, lowLimitC: house.lowLimitC, rules: house.alertRules } };
+    watched.set(sensor.id, { context, conditions: SENSOR_CLOSED });
+  }
+  const alertRows: (typeof alerts.$inferInsert)[] = [];
+  const openAlert = new Map<string, typeof alerts.$inferInsert>();
   const outsideSensors = layout.sensors.filter((s) => s.placement === "outside");
   const model = createSiteModel({
     timeZone: site.timeZone,
@@ -112,6 +125,26 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
       const tempC = Math.round(snap.airC * 100) / 100;
       const rh = Math.round(snap.rh * 100) / 100;
       tempBySensor.set(sensorId, tempC);
+      const watch = watched.get(sensorId);
+      if (watch) {
+        const result = evaluateReading(watch.conditions, watch.context, { tempC, rh, batteryPercent: 90 }, t);
+        watch.conditions = result.conditions;
+        for (const change of result.changes) {
+          const key = `${change.kind}:${sensorId}`;
+          if (change.change === "raise") {
+            const row = { siteId: site.id, houseId: house.id, sensorId, kind: change.kind, message: change.message, detail: change.detail, raisedAt: new Date(t) };
+            alertRows.push(row);
+            openAlert.set(key, row);
+          } else {
+            const row = openAlert.get(key);
+            if (!row) continue;
+            openAlert.delete(key);
+            row.clearedAt = new Date(t);
+            row.clearedMessage = change.message;
+            row.detail = { ...(row.detail as object), cleared: change.cleared };
+          }
+        }
+      }
       const at = new Date(t);
       minutes.push({ sensorId, minute: at, samples: 1, tempMinC: tempC, tempMaxC: tempC, tempMeanC: tempC, rhMean: rh });
       if (t >= rawFromMs) raw.push({ sensorId, at, tempC, rh, battery: 0.9 });
@@ -163,6 +196,8 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
     if (minutes.length >= 6000) await flush();
   }
   await flush(true);
+  // Alerts still open where the history ends stay open: the controller takes them over.
+  await insertMany(db, alerts, alertRows);
   // Each plug's present state where the history leaves it, as the controller would
   // have stored it: a controller starting now carries on from there.
   const updatedAt = new Date(endMs);
@@ -183,7 +218,7 @@ export async function writeDemoHistory(options: DemoHistoryOptions): Promise<Dem
   // The energy roll-up is kept by the controller as it logs switches; the past written
   // here is rolled up once, so the reports have its kWh.
   await rebuildEnergyDays(db, { siteIds: [site.id] });
-  return { skipped: false, ...written };
+  return { skipped: false, ...written, alerts: alertRows.length };
 }
 
 if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {

@@ -70,7 +70,7 @@ async function main() {
       "",
       database ? `  MariaDB: 127.0.0.1:${database.port} (data in .data/mariadb)` : "  MariaDB: DATABASE_URL",
       `  MQTT broker (in the controller): ${env.CLOCHE_MQTT_URL}; simulated plugs and sensors for the demo site`,
-      `  Mail (invitations) is kept, not delivered: read it at ${url}/dev/mail   (SMTP sink ${env.CLOCHE_SMTP_URL})`,
+      `  Mail (invitations, alerts, daily summaries) is kept, not delivered: read it at ${url}/dev/mail   (SMTP sink ${env.CLOCHE_SMTP_URL})`,
       "  Ctrl-C stops everything.",
       "",
     ].join("\n"),

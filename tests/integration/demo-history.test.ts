@@ -1,11 +1,13 @@
 // The demo history: the real decision code run against the simulated houses, written
 // as switches, per-minute readings and (for the last days) raw readings.
 import { beforeAll, describe, expect, it } from "vitest";
-import { asc, count, eq, inArray } from "drizzle-orm";
+import { and, asc, between, count, eq, inArray } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { DEMO_SITE, seedDemo } from "@/db/seed";
-import { plugs, readingMinutes, readings, sensors, switchEvents } from "@/db/schema";
+import { alerts, plugs, readingMinutes, readings, sensors, switchEvents } from "@/db/schema";
 import { writeDemoHistory } from "@/fakes/demo-history";
+import { alertDetailFrom } from "@/lib/alerts/detail";
+import { DEFAULT_ALERT_RULES } from "@/lib/alerts/rules";
 
 const endMs = Date.parse("2026-11-20T12:00:00Z");
 let plugIds: string[];
@@ -50,6 +52,28 @@ describe("the demo history", () => {
       expect(raw!.n).toBeGreaterThan(0);
     }
     expect(summary.minutes).toBeGreaterThan(0);
+
+    // The houses' alert rules ran over the same readings: each alert it wrote opened on a
+    // reading of the history that was past its limit, and closed (if it did) later.
+    const written = await db
+      .select()
+      .from(alerts)
+      .where(and(inArray(alerts.sensorId, sensorIds), between(alerts.raisedAt, new Date(endMs - 2 * 86_400_000), new Date(endMs))));
+    expect(written).toHaveLength(summary.alerts!);
+    for (const a of written) {
+      expect(["too_cold", "too_warm", "condensation"]).toContain(a.kind);
+      const detail = alertDetailFrom(a.detail);
+      const [minute] = await db.select().from(readingMinutes).where(and(eq(readingMinutes.sensorId, a.sensorId!), eq(readingMinutes.minute, a.raisedAt)));
+      expect(minute!.tempMeanC).toBeCloseTo(detail.valueC!, 2);
+      if (a.kind === "too_cold") expect(detail.valueC!).toBeLessThanOrEqual(detail.limitC!);
+      if (a.kind === "too_warm") expect(detail.valueC!).toBeGreaterThanOrEqual(detail.limitC!);
+      if (a.kind === "condensation") {
+        const near = detail.valueC! - detail.dewPointC! <= DEFAULT_ALERT_RULES.condensation.dewMarginK + 1e-9;
+        const humid = (detail.rh ?? 0) >= DEFAULT_ALERT_RULES.condensation.humidAboveRh;
+        expect(near || humid).toBe(true);
+      }
+      if (a.clearedAt) expect(a.clearedAt.getTime()).toBeGreaterThan(a.raisedAt.getTime());
+    }
   });
 
   it("is not written twice", async () => {
