@@ -129,7 +129,7 @@ describe("the controller's alert rules", () => {
       const rows = await rowsOf("condensation");
       return rows.length ? rows : undefined;
     }, 5000, "condensation risk");
-    expect(risk!.message).toBe("Condensation risk in Test house: the air at Air is close to its dew point.");
+    expect(risk!.message).toBe("Condensation risk in Test house: the air is close to its dew point at Air.");
     const detail = alertDetailFrom(risk!.detail);
     expect(detail).toMatchObject({ condensation: "near_dew_point", valueC: 10, rh: 95 });
     expect(detail.dewPointC).toBeCloseTo(9.24, 1);

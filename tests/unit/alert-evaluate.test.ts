@@ -157,7 +157,7 @@ describe("condensation risk", () => {
     expect(changes).toHaveLength(1);
     const raised = changes[0]!;
     expect(raised).toMatchObject({ kind: "condensation", change: "raise", atMin: 30 });
-    expect(raised.message).toBe("Condensation risk in Long house: the air at Bench sensor is close to its dew point.");
+    expect(raised.message).toBe("Condensation risk in Long house: the air is close to its dew point at Bench sensor.");
     const detail = raised.change === "raise" ? raised.detail : {};
     expect(detail.condensation).toBe("near_dew_point");
     expect(detail.dewPointC).toBeCloseTo(9.24, 1);
@@ -186,7 +186,7 @@ describe("condensation risk", () => {
       ["condensation", "raise", 0],
       ["condensation", "clear", 32],
     ]);
-    expect(changes[1]!.message).toBe("The air at Bench sensor in Long house is drier again.");
+    expect(changes[1]!.message).toBe("The air is drier again at Bench sensor in Long house.");
   });
 });
 
