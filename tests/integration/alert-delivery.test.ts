@@ -14,7 +14,7 @@ import { NOTIFIER_LOCK } from "@/lib/server/alerts/lock";
 import { createNotifier, type Notifier, type NotifierOptions } from "@/lib/server/alerts/notifier";
 import { SKIPPED_AFTER_QUIET_HOURS } from "@/lib/server/alerts/send";
 import { listMail, readMail, type MailMessage } from "@/lib/server/mailbox";
-import { clearAlert, createAlertSite, insertAlert, outboxOf } from "../support/alert-site";
+import { clearAlert, createAlertSite, insertAlert, outboxOf, quietNotifierLogger } from "../support/alert-site";
 
 // Far from the real clock, so no other test's controller heartbeat counts as recent.
 // London is on GMT in January: local time equals UTC.
@@ -44,7 +44,7 @@ afterAll(async () => {
 
 /** A notifier on an injected clock that runs only when asked. Control-stopped checks are kept out of the way unless asked for. */
 async function notifierFor(siteId: string, clock: { now: Date }, options: Partial<NotifierOptions> = {}) {
-  const n = await createNotifier({ siteIds: [siteId], now: () => clock.now, loop: false, controllerSilentAfterMs: 365 * 24 * 3600_000, baseUrl: "http://127.0.0.1:3000", ...options });
+  const n = await createNotifier({ logger: quietNotifierLogger, siteIds: [siteId], now: () => clock.now, loop: false, controllerSilentAfterMs: 365 * 24 * 3600_000, baseUrl: "http://127.0.0.1:3000", ...options });
   notifiers.push(n);
   return n;
 }
@@ -410,7 +410,7 @@ describe("the loop", () => {
   it("runs passes on its own timer, and close() stops it and can be called twice", async () => {
     const site = await createAlertSite({ members: members.slice(0, 1) });
     await insertAlert(site, { kind: "too_cold", raisedAt: new Date() });
-    const n = await createNotifier({ siteIds: [site.siteId], everyMs: 1000, controllerSilentAfterMs: 365 * 24 * 3600_000 });
+    const n = await createNotifier({ logger: quietNotifierLogger, siteIds: [site.siteId], everyMs: 1000, controllerSilentAfterMs: 365 * 24 * 3600_000 });
     const deadline = Date.now() + 5000;
     while ((await outboxOf(site.siteId)).filter((r) => r.status === "sent").length === 0 && Date.now() < deadline) await new Promise((r) => setTimeout(r, 100));
     await Promise.all([n.close(), n.close()]);
@@ -421,6 +421,6 @@ describe("the loop", () => {
   });
 
   it("refuses options that make no sense", async () => {
-    await expect(createNotifier({ everyMs: 0, loop: false })).rejects.toThrow(/everyMs/);
+    await expect(createNotifier({ logger: quietNotifierLogger, everyMs: 0, loop: false })).rejects.toThrow(/everyMs/);
   });
 });

@@ -18,6 +18,7 @@ import { deviceUsername } from "@/lib/mqtt/credentials";
 import { sensorTopic } from "@/lib/mqtt/topics";
 import { createNotifier, type Notifier } from "@/lib/server/alerts/notifier";
 import { listMail, readMail } from "@/lib/server/mailbox";
+import { quietNotifierLogger } from "../support/alert-site";
 import { connectAs, createControlSite, eventually, testControllerOptions, type ControlSite } from "../support/control-site";
 
 const MIN = 60_000;
@@ -85,6 +86,7 @@ beforeAll(async () => {
   controller = await createController(testControllerOptions(site, { now: () => clock, unansweredAfter: 1_000_000 }));
   sensor = await connectAs(controller.mqttUrl, deviceUsername(site.slug, "sensor", "air-1"), site.secret("sensor", "air-1"));
   notifier = await createNotifier({
+    logger: quietNotifierLogger,
     siteIds: [site.siteId],
     now: () => new Date(clock),
     loop: false,

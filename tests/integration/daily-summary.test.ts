@@ -13,7 +13,7 @@ import { summaryWindowAt } from "@/lib/alerts/summary";
 import { dailySummaryContent } from "@/lib/server/alerts/daily-summary";
 import { createNotifier } from "@/lib/server/alerts/notifier";
 import { listMail, readMail } from "@/lib/server/mailbox";
-import { clearAlert, createAlertSite, insertAlert, outboxOf } from "../support/alert-site";
+import { clearAlert, createAlertSite, insertAlert, outboxOf, quietNotifierLogger } from "../support/alert-site";
 
 const mailFolder = process.env.CLOCHE_MAIL_SINK_DIR!;
 const at = (iso: string) => new Date(iso);
@@ -74,7 +74,7 @@ describe("the daily summary", () => {
     const site = await summarySite("07:00");
     const [olive, gil, hal] = site.members;
     const clock = { now: at("2031-01-14T06:59:00Z") };
-    const n = await createNotifier({ siteIds: [site.siteId], now: () => clock.now, loop: false, controllerSilentAfterMs: 365 * 24 * 3600_000, baseUrl: "http://127.0.0.1:3000" });
+    const n = await createNotifier({ logger: quietNotifierLogger, siteIds: [site.siteId], now: () => clock.now, loop: false, controllerSilentAfterMs: 365 * 24 * 3600_000, baseUrl: "http://127.0.0.1:3000" });
     try {
       expect((await n.runOnce())!.summaries).toBe(0);
       clock.now = at("2031-01-14T07:00:00Z");
@@ -136,7 +136,7 @@ describe("the daily summary", () => {
     const site = await summarySite("18:00");
     const [olive] = site.members;
     const clock = { now: at("2031-01-13T18:02:00Z") };
-    const n = await createNotifier({ siteIds: [site.siteId], now: () => clock.now, loop: false, controllerSilentAfterMs: 365 * 24 * 3600_000, baseUrl: "http://127.0.0.1:3000" });
+    const n = await createNotifier({ logger: quietNotifierLogger, siteIds: [site.siteId], now: () => clock.now, loop: false, controllerSilentAfterMs: 365 * 24 * 3600_000, baseUrl: "http://127.0.0.1:3000" });
     try {
       expect((await n.runOnce())!.summaries).toBe(1);
       const [mail] = await inbox(olive!.email);
@@ -153,7 +153,7 @@ describe("the daily summary", () => {
   it("two notifiers at once write one summary", async () => {
     const site = await summarySite("07:00");
     const clock = { now: at("2031-01-14T07:00:00Z") };
-    const options = { siteIds: [site.siteId], now: () => clock.now, loop: false, controllerSilentAfterMs: 365 * 24 * 3600_000 };
+    const options = { logger: quietNotifierLogger, siteIds: [site.siteId], now: () => clock.now, loop: false, controllerSilentAfterMs: 365 * 24 * 3600_000 };
     const [a, b] = await Promise.all([createNotifier(options), createNotifier(options)]);
     try {
       await Promise.all([a.runOnce(), b.runOnce(), a.runOnce(), b.runOnce()]);

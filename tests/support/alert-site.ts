@@ -62,3 +62,10 @@ export async function outboxOf(siteId: string, alertId?: number) {
     .where(alertId === undefined ? eq(outboundMail.siteId, siteId) : and(eq(outboundMail.siteId, siteId), eq(outboundMail.alertId, alertId)))
     .orderBy(asc(outboundMail.id));
 }
+
+/** A notifier logger that keeps test output quiet; warnings and errors still show. */
+export const quietNotifierLogger = {
+  info: () => undefined,
+  warn: (fields: object, message: string) => console.warn(message, fields),
+  error: (fields: object, message: string) => console.error(message, fields),
+};
