@@ -10,6 +10,7 @@
 // Once open, an alert stays one alert until it clears; reminders go out every
 // `reminderMin` minutes while nobody has acknowledged it.
 import { z } from "zod";
+import { temperatureC } from "@/lib/schemas/common";
 
 const wholeMinutes = (label: string, min: number, max: number) =>
   z
@@ -17,6 +18,13 @@ const wholeMinutes = (label: string, min: number, max: number) =>
     .int(`${label} must be a whole number of minutes`)
     .min(min, `${label} must be at least ${min} min`)
     .max(max, `${label} must be at most ${max} min`);
+
+/** A temperature difference in K; the bounds are told in °F too, as the person may type in °F. */
+const difference = (label: string, min: number, max: number) =>
+  z
+    .number({ error: `${label} must be a number` })
+    .min(min, `${label} must be at least ${min} K (${min * 1.8} °F)`)
+    .max(max, `${label} must be at most ${max} K (${max * 1.8} °F)`);
 
 const number = (label: string, min: number, max: number, unit: string) =>
   z
@@ -29,16 +37,16 @@ export const alertRulesSchema = z
   .object({
     frost: z.object({
       /** null: the house's own frost limit (houses.low_limit_c). Frost risk cannot be turned off. */
-      belowC: number("Frost alert temperature", -20, 15, " °C").nullable(),
+      belowC: temperatureC("Frost alert temperature", -20, 15).nullable(),
       holdMin: wholeMinutes("Frost risk: minimum duration", 0, 60),
     }),
     tooWarm: z.object({
       enabled: z.boolean(),
-      aboveC: number("Too-warm temperature", 15, 60, " °C"),
+      aboveC: temperatureC("Too-warm temperature", 15, 60),
       holdMin: wholeMinutes("Too warm: minimum duration", 0, 120),
     }),
     /** How far back past the limit a temperature must come before its alert closes. */
-    hysteresisK: number("Temperature hysteresis", 0, 5, " K"),
+    hysteresisK: difference("Temperature hysteresis", 0, 5),
     sensorSilent: z.object({
       enabled: z.boolean(),
       afterMin: wholeMinutes("Sensor silent after", 2, 24 * 60),
@@ -58,7 +66,7 @@ export const alertRulesSchema = z
     condensation: z.object({
       enabled: z.boolean(),
       /** Open when the air is within this many K of its dew point for holdMin minutes. */
-      dewMarginK: number("Dew-point margin", 0, 10, " K"),
+      dewMarginK: difference("Dew-point margin", 0, 10),
       holdMin: wholeMinutes("Condensation: minimum duration", 0, 24 * 60),
       /** …or when relative humidity stays at or above this for humidHours. */
       humidAboveRh: number("Humidity level", 50, 100, " %"),

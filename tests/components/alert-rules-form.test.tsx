@@ -83,7 +83,7 @@ describe("AlertRulesForm in °F", () => {
     // 200 °F = 93.3 °C, above the 60 °C ceiling.
     type(/^Too warm above \(°F\)/, "200");
     fireEvent.click(screen.getByRole("button", { name: "Save rules for Glasshouse" }));
-    expect(await screen.findByText("Too-warm temperature must be at most 60 °C")).toBeTruthy();
+    expect(await screen.findByText("Too-warm temperature must be at most 60 °C (140 °F)")).toBeTruthy();
     expect(sent).toEqual([]);
   });
 

@@ -266,7 +266,7 @@ describe("a house's alert rules", () => {
     expect((await save(glassId, DEFAULT_ALERT_RULES, people.helper.cookie)).status).toBe(403);
     const bad = await save(glassId, { ...DEFAULT_ALERT_RULES, tooWarm: { enabled: true, aboveC: 75, holdMin: 10 } }, people.owner.cookie);
     expect(bad.status).toBe(400);
-    expect((await json(bad)).error!.fields).toEqual({ "tooWarm.aboveC": "Too-warm temperature must be at most 60 °C" });
+    expect((await json(bad)).error!.fields).toEqual({ "tooWarm.aboveC": "Too-warm temperature must be at most 60 °C (140 °F)" });
     const missing = await save(glassId, { ...DEFAULT_ALERT_RULES, reminderMin: undefined }, people.owner.cookie);
     expect(Object.keys((await json(missing)).error!.fields!)).toEqual(["reminderMin"]);
     const demoHouse = (await getDb().select({ id: houses.id }).from(houses).where(eq(houses.siteId, DEMO_SITE.id)))[0]!.id;
