@@ -82,13 +82,14 @@ describe("alerts", () => {
     // On a desk the panels may open folded: open this one.
     const fold = panel.locator("details").first();
     if ((await fold.getAttribute("open")) === null) await fold.locator("summary").first().click();
+    await expectAccessible(page, "the alert rules page");
     await panel.getByLabel("Too warm above").fill("30");
     await panel.getByRole("button", { name: /^Save rules for/ }).click();
     await expect.poll(async () => {
       const [row] = await getDb().select({ rules: houseAlertRules.rules }).from(houseAlertRules).where(eq(houseAlertRules.houseId, houseId));
       return row?.rules.tooWarm.aboveC;
     }).toBe(30);
-    await expectAccessible(page, "the alert rules page");
+    await expect.poll(() => panel.getByText(/^Saved\./).count()).toBe(1);
     await screenshot(page, "alerts-grower-rules");
     await page.close();
   });

@@ -76,6 +76,9 @@ export async function screenshot(page: Page, name: string) {
 
 /** No serious or critical accessibility violations (axe-core, WCAG 2 A/AA rules). */
 export async function expectAccessible(page: Page, what: string) {
+  // Next streams a dynamic page's <title> after its body, and again after a refresh:
+  // check the page once it has one, as a person's browser shows it.
+  await expect.poll(() => page.title(), { timeout: 10_000 }).not.toBe("");
   const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
   const bad = results.violations.filter((v) => v.impact === "serious" || v.impact === "critical");
   expect(
