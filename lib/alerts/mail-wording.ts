@@ -52,7 +52,10 @@ export function detailLines(alert: AlertForMail, reader: MailReader): string[] {
   const d = alert.detail;
   const { zone } = reader.site;
   const lines: string[] = [];
-  if (d.valueC !== undefined && d.limitC !== undefined) {
+  if (d.valueC !== undefined && d.limitC !== undefined && alert.kind === "condensation") {
+    // The limit here is the dew point plus the rule's margin: the alert is for air at or below it.
+    lines.push(`The reading was ${formatTemperature(d.valueC, reader.unit)}; this alert is for air at or below ${formatTemperature(d.limitC, reader.unit)}, its dew point plus the margin.`);
+  } else if (d.valueC !== undefined && d.limitC !== undefined) {
     const side = alert.kind === "too_cold" ? "below" : "above";
     lines.push(`The reading was ${formatTemperature(d.valueC, reader.unit)}; this alert is for ${side} ${formatTemperature(d.limitC, reader.unit)}.`);
   } else if (d.valueC !== undefined) {

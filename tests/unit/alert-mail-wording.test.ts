@@ -49,6 +49,10 @@ describe("alert e-mails", () => {
     expect(warm.subject).toBe("Too warm in Long house — Fern Hollow");
     expect(warm.text).not.toMatch(/RCD/);
     expect(warm.text).toContain("this alert is for above");
+    // Condensation's limit is the dew point plus the margin: air at or below it, never "above".
+    const damp = raisedMail({ ...frost, kind: "condensation", message: "Condensation risk in Long house.", detail: { valueC: 5.3, limitC: 5.7, dewPointC: 4.7, rh: 95 } }, reader("c"));
+    expect(damp.text).toContain("this alert is for air at or below 5.7 °C, its dew point plus the margin.");
+    expect(damp.text).not.toContain("this alert is for above");
   });
 
   it("a site-wide alert names the site only", () => {
