@@ -1,4 +1,5 @@
-// Entry point of `npm start` and `npm test` on a fresh clone. Plain Node, no
+// Entry point of `npm start`, `npm test` and the other commands a fresh clone may run
+// first (`npm run faults`, `npm run backup`, `npm run restore`). Plain Node, no
 // dependencies: it installs them when they are missing or out of date, then hands
 // over to the TypeScript runner under tsx.
 import { spawnSync, spawn } from "node:child_process";
@@ -9,8 +10,9 @@ import { fileURLToPath } from "node:url";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const command = process.argv[2];
-if (command !== "start" && command !== "test") {
-  console.error("usage: node scripts/bootstrap.mjs start|test");
+const COMMANDS = ["start", "test", "faults", "backup", "restore"];
+if (!COMMANDS.includes(command)) {
+  console.error(`usage: node scripts/bootstrap.mjs ${COMMANDS.join("|")}`);
   process.exit(2);
 }
 

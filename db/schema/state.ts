@@ -2,10 +2,11 @@
 // The controller is the only writer of these tables; the pages and a restarted
 // controller read a plug's present state from `plug_states` through one query
 // (db/plug-states.ts).
-import { bigint, boolean, int, mysqlEnum, mysqlTable, varchar } from "drizzle-orm/mysql-core";
+import { bigint, boolean, int, mysqlEnum, mysqlTable, primaryKey, varchar } from "drizzle-orm/mysql-core";
 import { SWITCH_CAUSES } from "../../lib/domain";
 import { instant, ref } from "./columns";
 import { plugs, sensors } from "./devices";
+import { sites } from "./sites";
 
 /** One row per plug: the state the switch log puts it in, why it is kept so now, and what it last said. */
 export const plugStates = mysqlTable("plug_states", {
@@ -58,3 +59,27 @@ export const controllerHeartbeats = mysqlTable("controller_heartbeats", {
   /** Set by a clean stop, so a stopped controller is told apart from a dead one. */
   stoppedAt: instant("stopped_at"),
 });
+
+/** What the broker's per-device limits did about a device's traffic, counted since the device was first limited. */
+export const DEVICE_LIMIT_ACTIONS = ["slowed", "oversized", "disconnected"] as const;
+
+export const deviceTraffic = mysqlTable(
+  "device_traffic",
+  {
+    siteId: ref("site_id")
+      .notNull()
+      .references(() => sites.id, { onDelete: "cascade" }),
+    deviceKind: mysqlEnum("device_kind", ["plug", "sensor"]).notNull(),
+    deviceId: varchar("device_id", { length: 64 }).notNull(),
+    /** Times the device sent faster than its limit and was held back. */
+    slowed: int("slowed").notNull().default(0),
+    /** Messages refused for being larger than the limit. */
+    oversized: int("oversized").notNull().default(0),
+    /** Times it was disconnected for going on past its limit. */
+    disconnected: int("disconnected").notNull().default(0),
+    lastAction: mysqlEnum("last_action", DEVICE_LIMIT_ACTIONS),
+    lastAt: instant("last_at"),
+    updatedAt: instant("updated_at").notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.siteId, t.deviceKind, t.deviceId] })],
+);

@@ -42,6 +42,7 @@ describe("migrations", () => {
         "controller_heartbeats",
         "daily_summaries",
         "device_credentials",
+        "device_traffic",
         "energy_days",
         "house_alert_rules",
         "houses",
