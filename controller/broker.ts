@@ -21,8 +21,17 @@ export type BrokerOptions = {
   port: number;
   controllerSecret: string;
   webappSecret: string;
-  /** The stored hash of a device's current secret, or null when it has none. */
-  lookupDeviceSecret: (username: string) => Promise<string | null>;
+  /**
+   * The stored hash of a device's current secret, or null when it has none. Answered
+   * from memory: a device signing in must never wait on the database.
+   */
+  deviceSecret: (username: string) => string | null;
+  /**
+   * Asked only when memory does not accept a device's secret (a credential issued a
+   * moment ago): the stored hash, or null. It may wait on the database, bounded by the
+   * database's deadline; devices already known never come here.
+   */
+  lookUpDeviceSecret?: (username: string) => Promise<string | null>;
   logger: Logger;
 };
 
@@ -32,11 +41,11 @@ export type Broker = {
   /** The controller's own way in: no socket, no encoding, no acknowledgements. */
   link: (options: LinkOptions) => Promise<BrokerLink>;
   /**
-   * Signs out the site's connected devices whose credential has been revoked or
-   * replaced since they signed in (a retired device, a revoked or re-issued secret).
-   * Returns how many were signed out.
+   * Signs out the site's (or every site's) connected devices whose credential has been
+   * revoked or replaced since they signed in (a retired device, a revoked or re-issued
+   * secret). Returns how many were signed out.
    */
-  recheckDevices: (siteSlug: string) => Promise<number>;
+  recheckDevices: (siteSlug?: string) => number;
   close: () => Promise<void>;
 };
 
@@ -72,16 +81,22 @@ export async function createBroker(options: BrokerOptions): Promise<Broker> {
       }
       const principal = parseDeviceUsername(username);
       if (!principal) return refuse("unknown user name");
+      const accept = (stored: string) => {
+        principals.set(client, principal);
+        signedInWith.set(client, stored);
+        done(null, true);
+      };
+      const held = options.deviceSecret(username);
+      if (held && verifyDeviceSecret(secret, held)) return accept(held);
+      if (!options.lookUpDeviceSecret) return refuse("wrong secret");
       options
-        .lookupDeviceSecret(username)
+        .lookUpDeviceSecret(username)
         .then((stored) => {
-          if (!stored || !verifyDeviceSecret(secret, stored)) return refuse("wrong secret");
-          principals.set(client, principal);
-          signedInWith.set(client, stored);
-          done(null, true);
+          if (!stored || stored === held || !verifyDeviceSecret(secret, stored)) return refuse("wrong secret");
+          accept(stored);
         })
         .catch((error: unknown) => {
-          logger.error({ err: error, username }, "credential lookup failed");
+          logger.warn({ err: error, username }, "a credential not yet held could not be looked up");
           done(Object.assign(new Error("server unavailable"), { returnCode: 3 as const }), false);
         });
     },
@@ -146,13 +161,13 @@ export async function createBroker(options: BrokerOptions): Promise<Broker> {
     };
   }
 
-  async function recheckDevices(siteSlug: string): Promise<number> {
+  function recheckDevices(siteSlug?: string): number {
     const clients = Object.values((aedes as unknown as { clients: Record<string, Client> }).clients);
     let signedOut = 0;
     for (const client of clients) {
       const principal = principals.get(client);
-      if (!principal || (principal.kind !== "plug" && principal.kind !== "sensor") || principal.site !== siteSlug) continue;
-      const stored = await options.lookupDeviceSecret(deviceUsername(principal.site, principal.kind, principal.device));
+      if (!principal || (principal.kind !== "plug" && principal.kind !== "sensor") || (siteSlug !== undefined && principal.site !== siteSlug)) continue;
+      const stored = options.deviceSecret(deviceUsername(principal.site, principal.kind, principal.device));
       if (stored !== null && stored === signedInWith.get(client)) continue;
       logger.info({ clientId: client.id, device: principal.device }, "device signed out: its credential was revoked or replaced");
       client.close();

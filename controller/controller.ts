@@ -12,7 +12,7 @@
 import { randomUUID } from "node:crypto";
 import pino, { type Logger } from "pino";
 import { connect, type Database } from "@/db/client";
-import { lookupDeviceSecret } from "@/db/device-credentials";
+import { findDeviceCredential, loadDeviceCredentials } from "@/db/device-credentials";
 import { loadPlugStates, storedSwitchState } from "@/db/plug-states";
 import type { Decision } from "@/lib/control";
 import { restoredState } from "@/lib/control/switch-lifecycle";
@@ -21,6 +21,7 @@ import { createAlerts } from "./alerts";
 import { createAlertWatch } from "./alert-watch";
 import { createBroker, type Broker } from "./broker";
 import { loadConfig, loadLatestReadings } from "./config";
+import { createCredentials } from "./credentials";
 import { createHeartbeat } from "./heartbeat";
 import { INBOX_SUBSCRIPTIONS, createInbox } from "./inbox";
 import { connectNetworkLink, type BrokerLink } from "./link";
@@ -62,6 +63,12 @@ export type ControllerOptions = {
   meterSampleMs: number;
   heartbeatMs: number;
   rawReadingRetentionMs: number;
+  /**
+   * The longest wait for one database statement. Nothing between a reading and the
+   * command it leads to waits on the database; this bounds the writers and reloads
+   * beside that path, so a database that hangs cannot hold them for ever.
+   */
+  databaseTimeoutMs: number;
   now: () => number;
   logger: Logger;
 };
@@ -81,6 +88,7 @@ const defaults: Omit<ControllerOptions, "databaseUrl" | "controllerSecret" | "we
   meterSampleMs: 60_000,
   heartbeatMs: 5000,
   rawReadingRetentionMs: 7 * 24 * 3600_000,
+  databaseTimeoutMs: 10_000,
   now: Date.now,
 };
 
@@ -113,7 +121,7 @@ export type Controller = {
 export async function createController(input: Partial<ControllerOptions> & Pick<ControllerOptions, "databaseUrl" | "controllerSecret" | "webappSecret">): Promise<Controller> {
   const options: ControllerOptions = { ...defaults, logger: pino({ name: "controller" }), ...input };
   const { logger, now } = options;
-  const { db, pool } = connect(options.databaseUrl);
+  const { db, pool } = connect(options.databaseUrl, { timeoutMs: options.databaseTimeoutMs });
   const timers = createTimers();
   let closed = false;
   let startedMs = now();
@@ -128,6 +136,9 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
   const alerts = createAlerts({ db, logger, now });
   const heartbeat = createHeartbeat({ db, instanceId: randomUUID(), sites: options.sites, everyMs: options.heartbeatMs, now, logger });
   const registry = createRegistry();
+  const credentials = createCredentials();
+  // Started once the configuration (and with it the devices' credentials) is in.
+  let broker: Broker | null = null;
   const alertWatch = createAlertWatch({ alerts, registry, logger, ackTimeoutMs: options.ackTimeoutMs, everyMs: options.alertWatchMs, now });
   const outbox = createOutbox({ logger });
   let staleReports = 0;
@@ -145,14 +156,18 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
   async function reload(siteSlug?: string) {
     const slugs = siteSlug ? [siteSlug] : options.sites;
     const config = await loadConfig(db, new Date(now()), slugs);
-    const stored = await loadPlugStates(db, registry.unknownPlugs(config).map((p) => p.id));
+    const siteIds = config.sites.map((s) => s.id);
+    const [stored, signIns] = await Promise.all([loadPlugStates(db, registry.unknownPlugs(config).map((p) => p.id)), loadDeviceCredentials(db, siteIds)]);
     const startMs = now();
     registry.apply(config, (plug) => restoredState(storedSwitchState(stored.get(plug.id), startMs), startMs), !siteSlug);
+    credentials.replace(siteIds, signIns, !siteSlug);
+    // A credential revoked or replaced since its device signed in ends that session now.
+    broker?.recheckDevices(siteSlug);
     // Rules saved in the app apply at once: the latest readings are looked at again.
     alertWatch.reloaded(now());
     // New windows or overrides may bring the next edge closer.
     if (edgesArmed) armEdge();
-    logger.info({ site: siteSlug ?? "all", sites: config.sites.length, plugs: config.plugs.length, sensors: config.sensors.length }, "configuration loaded");
+    logger.info({ site: siteSlug ?? "all", sites: config.sites.length, plugs: config.plugs.length, sensors: config.sensors.length, credentials: signIns.length }, "configuration loaded");
   }
 
   // Start-up: MariaDB may still be coming up; keep trying.
@@ -166,7 +181,6 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
     }
   });
 
-  let broker: Broker | null = null;
   let mqttUrl = options.mqttUrl;
   if (!mqttUrl) {
     broker = await createBroker({
@@ -174,7 +188,12 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
       port: options.mqttPort,
       controllerSecret: options.controllerSecret,
       webappSecret: options.webappSecret,
-      lookupDeviceSecret: (username) => lookupDeviceSecret(db, username),
+      deviceSecret: credentials.secretHash,
+      async lookUpDeviceSecret(username) {
+        const found = await findDeviceCredential(db, username);
+        credentials.learn(username, found);
+        return found?.secretHash ?? null;
+      },
       logger: logger.child({ part: "broker" }),
     });
     mqttUrl = `mqtt://${options.mqttHost}:${broker.port}`;
@@ -253,9 +272,6 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
       wake(site) {
         if (served && !served.has(site)) return;
         reloadSoon(site);
-        broker
-          ?.recheckDevices(site)
-          .catch((error: unknown) => logger.error({ err: error, site }, "rechecking the site's device sign-ins failed"));
       },
     },
   });

@@ -1,18 +1,32 @@
 // Device credentials: issued to a device (the secret is shown once), stored hashed.
-import { and, eq, isNull } from "drizzle-orm";
+import { and, eq, inArray, isNull } from "drizzle-orm";
 import type { Database } from "@/db/client";
 import { deviceCredentials } from "@/db/schema";
 import { deviceUsername } from "@/lib/mqtt/credentials";
 import { hashDeviceSecret, newDeviceSecret } from "@/lib/server/device-secrets";
 import type { DeviceKind } from "@/lib/mqtt/topics";
 
-export async function lookupDeviceSecret(db: Database, username: string): Promise<string | null> {
+/** A device's current (not revoked) credential, or null. */
+export async function findDeviceCredential(db: Database, username: string): Promise<{ siteId: string; username: string; secretHash: string } | null> {
   const [row] = await db
-    .select({ secretHash: deviceCredentials.secretHash })
+    .select({ siteId: deviceCredentials.siteId, username: deviceCredentials.username, secretHash: deviceCredentials.secretHash })
     .from(deviceCredentials)
     .where(and(eq(deviceCredentials.username, username), isNull(deviceCredentials.revokedAt)))
     .limit(1);
-  return row?.secretHash ?? null;
+  return row ?? null;
+}
+
+export async function lookupDeviceSecret(db: Database, username: string): Promise<string | null> {
+  return (await findDeviceCredential(db, username))?.secretHash ?? null;
+}
+
+/** The current (not revoked) credentials of the given sites' devices, for the controller to hold in memory. */
+export async function loadDeviceCredentials(db: Database, siteIds: string[]): Promise<{ siteId: string; username: string; secretHash: string }[]> {
+  if (siteIds.length === 0) return [];
+  return db
+    .select({ siteId: deviceCredentials.siteId, username: deviceCredentials.username, secretHash: deviceCredentials.secretHash })
+    .from(deviceCredentials)
+    .where(and(inArray(deviceCredentials.siteId, siteIds), isNull(deviceCredentials.revokedAt)));
 }
 
 type Writer = Pick<Database, "insert" | "delete" | "update">;

@@ -7,7 +7,7 @@ import { connect } from "./client";
 const migrationsFolder = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..", "drizzle");
 
 export async function migrateDatabase(url: string) {
-  const { db, pool } = connect(url);
+  const { db, pool } = connect(url, { timeoutMs: Infinity });
   try {
     await migrate(db, { migrationsFolder });
   } finally {

@@ -337,7 +337,7 @@ if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.me
     console.error("DATABASE_URL is not set.");
     process.exit(2);
   }
-  const { db, pool } = connect(url);
+  const { db, pool } = connect(url, { timeoutMs: Infinity });
   try {
     const { created } = await seedDemo(db);
     const total = Object.values(created).reduce((a, b) => a + b, 0);

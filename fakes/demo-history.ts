@@ -228,7 +228,7 @@ if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.me
     process.exit(2);
   }
   const days = Number(process.argv[2] ?? 60);
-  const { db, pool } = connect(url);
+  const { db, pool } = connect(url, { timeoutMs: Infinity });
   try {
     const began = Date.now();
     const summary = await writeDemoHistory({ db, site: process.env.CLOCHE_FAKES_SITE ?? "fernhollow", days, endMs: Date.now() });

@@ -25,7 +25,7 @@ async function main() {
   const slugs = siteSlugs(process.argv.slice(2));
   const url = process.env.DATABASE_URL ?? runningDevDatabaseUrl();
   if (!url) throw new Error("No database: start Cloche first (npm start), or set DATABASE_URL.");
-  const { db, pool } = connect(url);
+  const { db, pool } = connect(url, { timeoutMs: Infinity });
   try {
     let siteIds: string[] | undefined;
     if (slugs.length) {

@@ -46,7 +46,7 @@ export type Stack = {
 export async function prepareDatabase(databaseUrl: string, historyDays: number, deviceSecretsFile = DEVICE_SECRETS_FILE) {
   say("applying migrations…");
   await migrateDatabase(databaseUrl);
-  const { db, pool } = connect(databaseUrl);
+  const { db, pool } = connect(databaseUrl, { timeoutMs: Infinity });
   try {
     const { created } = await seedDemo(db);
     const added = Object.values(created).reduce((a, b) => a + b, 0);

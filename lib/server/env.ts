@@ -27,6 +27,8 @@ const schema = z.object({
    */
   CLOCHE_MAIL_SINK_DIR: z.string().min(1).optional(),
   /** "off" keeps this process from e-mailing alerts and summaries (instrumentation.ts). */
+  /** The longest wait for one database statement (or a free connection) before a page or handler answers 503. */
+  CLOCHE_DB_TIMEOUT_MS: z.coerce.number().int().min(100).max(120_000).default(5000),
   CLOCHE_NOTIFIER: z.enum(["on", "off"], { error: "CLOCHE_NOTIFIER must be on or off" }).default("on"),
 }).refine((e) => !e.CLOCHE_MAIL_SINK_DIR || (e.CLOCHE_SMTP_URL !== undefined && isLoopbackSmtp(e.CLOCHE_SMTP_URL)), {
   path: ["CLOCHE_MAIL_SINK_DIR"],

@@ -53,7 +53,9 @@ export async function parseJsonBody<S extends AnySchema>(request: Request, schem
 
 export function errorResponse(error: unknown): Response {
   const appError = toAppError(error);
-  return Response.json(errorBody(appError), { status: appError.status });
+  // A 503 is for a while: say when to try again.
+  const headers: HeadersInit = appError.status === 503 ? { "retry-after": "30" } : {};
+  return Response.json(errorBody(appError), { status: appError.status, headers });
 }
 
 type Context<P> = { params: Promise<P> };

@@ -55,7 +55,7 @@ beforeAll(async () => {
     port: 0,
     controllerSecret: "controller-secret-for-tests",
     webappSecret: "webapp-secret-for-tests",
-    lookupDeviceSecret: async (username) => hashes.get(username) ?? null,
+    deviceSecret: (username) => hashes.get(username) ?? null,
     logger: pino({ level: "silent" }),
   });
 });
