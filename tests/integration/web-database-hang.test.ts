@@ -6,8 +6,10 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import * as liveRoute from "@/app/api/sites/[siteId]/live/route";
 import * as sitesRoute from "@/app/api/sites/route";
 import * as healthRoute from "@/app/api/health/route";
+import { NextRequest } from "next/server";
 import { DATABASE_UNAVAILABLE_MESSAGE } from "@/lib/errors";
-import { call, signUp, type Account } from "../support/http";
+import { proxy as pageProxy } from "@/proxy";
+import { BASE, call, signUp, type Account } from "../support/http";
 import { startTcpProxy, type TcpProxy } from "../support/tcp-proxy";
 
 const TIMEOUT_MS = 1500;
@@ -60,6 +62,17 @@ describe("the web app while MariaDB hangs", () => {
       const health = await timed(() => healthRoute.GET());
       expect(health.response.status).toBe(503);
       expect(health.ms).toBeLessThan(TIMEOUT_MS + 1000);
+
+      // A page is answered before it renders: a 503 page that says what is wrong.
+      const pageStarted = performance.now();
+      const page = await pageProxy(new NextRequest(`${BASE}/sites/hang-test`, { headers: { cookie: owner.cookie } }));
+      expect(performance.now() - pageStarted).toBeLessThan(3000);
+      expect(page.status).toBe(503);
+      expect(page.headers.get("content-type")).toMatch(/^text\/html/);
+      expect(page.headers.get("retry-after")).toBe("30");
+      const html = await page.text();
+      expect(html).toContain("Cloche can’t reach its database");
+      expect(html).toContain(DATABASE_UNAVAILABLE_MESSAGE);
     } finally {
       proxy.restore();
     }
@@ -72,6 +85,11 @@ describe("the web app while MariaDB hangs", () => {
       await new Promise((resolve) => setTimeout(resolve, 200));
     }
     expect(status).toBe(200);
+    // Pages go through again once it answers.
+    await new Promise((resolve) => setTimeout(resolve, 1100));
+    const page = await pageProxy(new NextRequest(`${BASE}/sites/hang-test`, { headers: { cookie: owner.cookie } }));
+    expect(page.status).toBe(200);
+    expect(page.headers.get("x-middleware-next")).toBe("1");
   }, 30_000);
 
   it("answers a database that refuses connections with a 503 too, never a 500", async () => {
