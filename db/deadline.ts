@@ -70,36 +70,36 @@ function connectionWithDeadlines(connection: PoolConnection, ms: number, breaker
 
 /**
  * After a deadline passes, callers fail at once instead of each waiting out a deadline
- * of its own, while one call every `probeEveryMs` is let through to find out whether
- * the database answers again. Errors that come back at once (refused, connection lost)
- * need no such help and do not trip it.
+ * of its own, while a probe in the background (`SELECT 1` every `probeEveryMs`, under
+ * the same deadline) finds out when the database answers again. Errors that come back
+ * at once (refused, connection lost) need no such help and do not trip it.
  */
-function createBreaker(probeEveryMs: number, now: () => number) {
+function createBreaker(probeEveryMs: number, now: () => number, probe: () => Promise<unknown>) {
   let openSince: number | null = null;
-  let probeAt = 0;
-  let probing = false;
+
+  function probeLater() {
+    const timer = setTimeout(() => {
+      probe().then(
+        () => {
+          openSince = null;
+        },
+        () => probeLater(),
+      );
+    }, probeEveryMs);
+    timer.unref?.();
+  }
+
   return {
     async guard<T>(work: () => Promise<T>): Promise<T> {
-      if (openSince !== null) {
-        if (probing || now() < probeAt) {
-          throw new DatabaseTimeoutError(`(not answering for ${Math.round((now() - openSince) / 1000)} s)`, 0);
-        }
-        probing = true;
-        probeAt = now() + probeEveryMs;
-      }
-      const wasProbe = probing;
+      if (openSince !== null) throw new DatabaseTimeoutError(`(not answering for ${Math.round((now() - openSince) / 1000)} s)`, 0);
       try {
-        const value = await work();
-        openSince = null;
-        return value;
+        return await work();
       } catch (error) {
         if (error instanceof DatabaseTimeoutError && openSince === null) {
           openSince = now();
-          probeAt = openSince + probeEveryMs;
+          probeLater();
         }
         throw error;
-      } finally {
-        if (wasProbe) probing = false;
       }
     },
   };
@@ -111,7 +111,7 @@ export type DeadlineOptions = { probeEveryMs?: number; now?: () => number };
 
 /** The pool with a deadline of `ms` on every statement and on every wait for a connection. */
 export function poolWithDeadlines(pool: Pool, ms: number, options: DeadlineOptions = {}): Pool {
-  const breaker = createBreaker(options.probeEveryMs ?? 2000, options.now ?? Date.now);
+  const breaker = createBreaker(options.probeEveryMs ?? 2000, options.now ?? Date.now, () => statement("query", ["SELECT 1"]));
   async function statement(method: Statement, args: unknown[]) {
     const connection = await acquire(pool, ms);
     let destroyed = false;
