@@ -1,5 +1,7 @@
 // One scenario of the fault suite (`npm run faults`): it does something bad to the
 // running product and reports what happened, in figures, against the targets.
+import type { FaultProcesses } from "./processes";
+
 export type FaultContext = {
   /** The web app's base URL, e.g. http://127.0.0.1:3440 */
   url: string;
@@ -11,6 +13,10 @@ export type FaultContext = {
   deviceSecretsFile: string;
   /** Prints one line of what the scenario is doing. */
   log: (line: string) => void;
+  /** The stack's processes (database, services, a plug of its own), for scenarios that freeze or kill them. */
+  processes?: FaultProcesses;
+  /** `--freeze-seconds N` and the like from the command line, for scenarios that take them. */
+  options?: Record<string, number>;
 };
 
 /** Figures every scenario reports; null where a figure does not apply to it. */
