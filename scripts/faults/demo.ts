@@ -3,11 +3,12 @@
 // window opening on an on/off plug, a manual override, a house's alert rules, and the
 // controller woken to take them in at once.
 import { randomUUID } from "node:crypto";
-import { and, eq, gte, inArray } from "drizzle-orm";
+import { and, eq, gte, inArray, lte } from "drizzle-orm";
 import mqtt, { type MqttClient } from "mqtt";
 import { connect, type Database } from "../../db/client";
 import { DEMO_MEMBERS, DEMO_SITE } from "../../db/seed";
-import { alerts, houseAlertRules, houses, overrides, plugs, scheduleWindows, schedules, sensors, sites } from "../../db/schema";
+import { alerts, houseAlertRules, houses, overrides, plugs, scheduleWindows, schedules, sensors, sites, switchEvents } from "../../db/schema";
+import type { LogRow } from "./accounting";
 import { DEFAULT_ALERT_RULES } from "../../lib/alerts/rules";
 import { WEBAPP_USERNAME, deviceUsername } from "../../lib/mqtt/credentials";
 import { wakeTopic, type WakePayload } from "../../lib/mqtt/topics";
@@ -155,4 +156,28 @@ export async function wakeSite(mqttUrl: string, env: NodeJS.ProcessEnv, payload:
   } finally {
     await client.endAsync();
   }
+}
+
+/** The switch log of every plug between two instants, in the order it was written. */
+export async function readSwitchLog(databaseUrl: string, fromMs: number, toMs: number): Promise<LogRow[]> {
+  return withDatabase(databaseUrl, async (db) => {
+    const plugRows = await db.select({ id: plugs.id, deviceId: plugs.deviceId }).from(plugs);
+    const device = new Map(plugRows.map((p) => [p.id, p.deviceId]));
+    const rows = await db
+      .select()
+      .from(switchEvents)
+      .where(and(gte(switchEvents.at, new Date(fromMs)), lte(switchEvents.at, new Date(toMs)), inArray(switchEvents.plugId, [...device.keys()])))
+      .orderBy(switchEvents.id);
+    return rows.map((r) => ({
+      id: r.id,
+      device: device.get(r.plugId)!,
+      commandId: r.commandId,
+      fromOn: r.fromOn,
+      toOn: r.toOn,
+      cause: r.cause,
+      atMs: r.at.getTime(),
+      ackAtMs: r.ackAt?.getTime() ?? null,
+      withdrawn: r.withdrawnAt !== null,
+    }));
+  });
 }

@@ -1,7 +1,8 @@
 // Pieces every process-level scenario uses: waiting, the switch account turned into
 // figures and failures, and the demo devices' secrets.
 import { readDeviceSecrets } from "../../fakes/layout";
-import { accountSwitches, journalOf, readSwitchLog } from "./accounting";
+import { accountSwitches, journalOf } from "./accounting";
+import { readSwitchLog } from "./demo";
 import type { FaultContext, FaultResult } from "./scenario";
 import type { FaultProcesses } from "./processes";
 
@@ -28,6 +29,9 @@ export async function secretOf(context: FaultContext, username: string) {
   if (!secret) throw new Error(`no secret for ${username} in ${context.deviceSecretsFile}`);
   return secret;
 }
+
+/** A window opens on a whole second (its start is stored as HH:MM:SS): the next one from `ms`. */
+export const wholeSecond = (ms: number) => Math.ceil(ms / 1000) * 1000;
 
 /** Seconds with one decimal, for the lines a scenario prints. */
 export const seconds = (ms: number) => `${(ms / 1000).toFixed(1)} s`;
@@ -63,7 +67,7 @@ export async function settle(
       crashes: 0,
       serverErrors: null,
     },
-    extra: { "switches made": account.applied, "switches logged": account.logged, ...o.extra },
+    extra: { "switches made": account.applied, "switches logged": account.logged, "logged only as observed": account.loggedAsObserved, ...o.extra },
     failures,
   };
 }

@@ -8,7 +8,7 @@ import { journalOf, timeToReach } from "../accounting";
 import { loadDemoSite, mqttConnect, SITE, setOnWindow, wakeSite, withDatabase } from "../demo";
 import { plugs } from "../../../db/schema";
 import type { FaultScenario } from "../scenario";
-import { processesOf, seconds, settle, sleep } from "../steps";
+import { wholeSecond, processesOf, seconds, settle, sleep } from "../steps";
 
 export const brokerRestart: FaultScenario = {
   name: "broker-restarted",
@@ -25,7 +25,7 @@ export const brokerRestart: FaultScenario = {
     const devices = await withDatabase(databaseUrl, async (db) => (await db.select({ deviceId: plugs.deviceId }).from(plugs)).map((p) => p.deviceId));
 
     const stopAtMs = Date.now() + 12_000;
-    const edgeMs = stopAtMs + 500;
+    const edgeMs = wholeSecond(stopAtMs + 500);
     log(`${fan.deviceId} gets a window opening at ${new Date(edgeMs).toISOString()}, while the broker is away`);
     await setOnWindow(databaseUrl, site, fan, edgeMs, 10);
     await wakeSite(mqttUrl, processes.env, { reason: "schedule", plug: fan.deviceId });

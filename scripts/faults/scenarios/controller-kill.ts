@@ -5,7 +5,7 @@
 import { journalOf, timeToReach } from "../accounting";
 import { loadDemoSite, setOnWindow, wakeSite } from "../demo";
 import type { FaultScenario } from "../scenario";
-import { processesOf, seconds, settle, sleep, waitFor } from "../steps";
+import { wholeSecond, processesOf, seconds, settle, sleep, waitFor } from "../steps";
 
 export const controllerKill: FaultScenario = {
   name: "controller-killed-at-an-edge",
@@ -20,7 +20,7 @@ export const controllerKill: FaultScenario = {
     const fan = site.plug(processes.plug.device);
     const controller = processes.service("controller");
 
-    const edgeMs = Date.now() + 12_000;
+    const edgeMs = wholeSecond(Date.now() + 12_000);
     log(`${fan.deviceId} gets a window opening at ${new Date(edgeMs).toISOString()}`);
     await setOnWindow(databaseUrl, site, fan, edgeMs, 10);
     await wakeSite(mqttUrl, processes.env, { reason: "schedule", plug: fan.deviceId });

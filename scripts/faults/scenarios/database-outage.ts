@@ -8,7 +8,7 @@ import { sensorTopic } from "../../../lib/mqtt/topics";
 import { timeToReach, journalOf } from "../accounting";
 import { addOverride, cancelOverride, demoOwner, loadDemoSite, mqttConnect, sensorUsername, setGuard, setOnWindow, SITE, wakeSite } from "../demo";
 import type { FaultContext, FaultResult, FaultScenario } from "../scenario";
-import { processesOf, secretOf, seconds, settle, sleep, waitFor } from "../steps";
+import { wholeSecond, processesOf, secretOf, seconds, settle, sleep, waitFor } from "../steps";
 import { probeWhile, signIn, timedGet } from "../web";
 
 /** A web answer slower than this while the database is away is a hang, not a fast failure. */
@@ -51,7 +51,7 @@ async function runOutage(context: FaultContext, outage: Outage, outageS: number)
   if (!heaterOn) failures.push("the heater did not come on for its override before the outage");
 
   const sensor: MqttClient = await mqttConnect(mqttUrl, sensorUsername(sensorDevice), sensorSecret, 10_000);
-  const edgeMs = Date.now() + 20_000;
+  const edgeMs = wholeSecond(Date.now() + 20_000);
   const outageAtMs = edgeMs - 5000;
   log(`${fan.deviceId} gets a window opening at ${new Date(edgeMs).toISOString()}, 5 s into the outage`);
   await setOnWindow(databaseUrl, site, fan, edgeMs, 10);
