@@ -6,6 +6,9 @@ import { readSwitchLog } from "./demo";
 import type { FaultContext, FaultResult } from "./scenario";
 import type { FaultProcesses } from "./processes";
 
+/** The longest back-off of the controller's switch-log writes (controller/switch-log.ts), and a little more. */
+const LOG_CATCH_UP_MS = 45_000;
+
 export const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, Math.max(0, ms)));
 
 /** Polls `test` until it gives a value other than undefined/false; undefined after `timeoutMs`. */
@@ -46,13 +49,24 @@ export async function settle(
 ): Promise<FaultResult> {
   const { journalFile } = processesOf(context);
   const toMs = Date.now();
-  const journal = journalOf(journalFile);
-  // Rows from a little before the stretch let a command sent just before it be matched.
-  const logAll = await readSwitchLog(context.databaseUrl, o.fromMs - 10 * 60_000, toMs + 60_000);
-  const account = accountSwitches(journal, logAll, o.fromMs, toMs, logAll);
-  for (const line of account.findings) context.log(line);
+  // The controller keeps rows it could not write and tries again with back-off (up to
+  // 30 s apart): the log is given that long to catch up before a switch counts as lost.
+  const account = async () => {
+    const journal = journalOf(journalFile);
+    // Rows from a little before the stretch let a command sent just before it be matched.
+    const logAll = await readSwitchLog(context.databaseUrl, o.fromMs - 10 * 60_000, toMs + 60_000);
+    return accountSwitches(journal, logAll, o.fromMs, toMs, logAll);
+  };
+  let result = await account();
+  if (result.lost) {
+    context.log(`${result.lost} switch(es) not in the log yet; giving it up to ${seconds(LOG_CATCH_UP_MS)} to catch up…`);
+    result = (await waitFor(async () => ((await account()).lost === 0 ? account() : undefined), LOG_CATCH_UP_MS, 2000)) ?? (await account());
+    context.log(`the log ${result.lost ? "did not catch up" : "caught up"} ${seconds(Date.now() - toMs)} after the stretch ended`);
+  }
+  const catchUp = result;
+  for (const line of catchUp.findings) context.log(line);
   const failures = [...o.failures];
-  if (account.outOfOrder) failures.push(`${account.outOfOrder} switch(es) written out of order`);
+  if (catchUp.outOfOrder) failures.push(`${catchUp.outOfOrder} switch(es) written out of order`);
   const gapValues = Object.entries(o.gaps);
   for (const [what, ms] of gapValues) {
     if (ms === null) failures.push(`${what}: the plug never reached the wanted state`);
@@ -61,13 +75,13 @@ export async function settle(
   const known = gapValues.map(([, ms]) => ms).filter((ms): ms is number => ms !== null);
   return {
     figures: {
-      switchesLost: account.lost,
-      switchesDoubled: account.doubled,
+      switchesLost: catchUp.lost,
+      switchesDoubled: catchUp.doubled,
       longestControlGapMs: known.length ? Math.max(...known) : null,
       crashes: 0,
       serverErrors: null,
     },
-    extra: { "switches made": account.applied, "switches logged": account.logged, "logged only as observed": account.loggedAsObserved, ...o.extra },
+    extra: { "switches made": catchUp.applied, "switches logged": catchUp.logged, "logged only as observed": catchUp.loggedAsObserved, ...o.extra },
     failures,
   };
 }
