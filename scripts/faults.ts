@@ -8,10 +8,9 @@
 //   npm run faults -- --quick              the quick ones (also run by npm test)
 //   npm run faults -- NAME…                the named ones
 //   npm run faults -- --freeze-seconds 60  options taken by scenarios (see --help)
-import { mkdirSync, rmSync } from "node:fs";
+import { mkdirSync, mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import { mkdtempSync } from "node:fs";
 import { LocalDatabaseError, freePort, startLocalDatabase, type LocalDatabase } from "./local-server";
 import { dataFolder, say } from "./common";
 import { startStack, type Stack } from "./stack";
