@@ -4,6 +4,8 @@
 //   CLOCHE_DEVICE_SECRETS   JSON file { "<username>": "<secret>" } (default .data/device-secrets.json)
 //   CLOCHE_FAKES_SPEED      simulated seconds per real second (default 1)
 //   CLOCHE_FAKES_SITE       site slug (default fernhollow)
+//   CLOCHE_PLUG_JOURNAL     file each plug appends its journal to (fakes/journal.ts; the fault suite)
+//   CLOCHE_FAKES_EXCEPT     comma-separated device ids to leave out (run on their own by fakes/one-plug.ts)
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import pino from "pino";
@@ -24,6 +26,8 @@ async function main() {
     secretsFile: process.env.CLOCHE_DEVICE_SECRETS || SIMULATION_DEFAULTS.secretsFile,
     site: process.env.CLOCHE_FAKES_SITE || SIMULATION_DEFAULTS.site,
     speed,
+    journalFile: process.env.CLOCHE_PLUG_JOURNAL || undefined,
+    except: (process.env.CLOCHE_FAKES_EXCEPT ?? "").split(",").filter(Boolean),
     logger: log,
   });
 

@@ -38,6 +38,20 @@ export type PlugDeviceOptions = {
   logger?: Logger;
   /** Told of every change of state, with why. */
   onSwitch?: (on: boolean, atMs: number, cause: "command" | "lease") => void;
+  /** Told of everything the plug does to its state: its start, each command it obeys (repeats too), each lease fall-back. */
+  journal?: (entry: PlugJournalEntry) => void;
+};
+
+/** One line of a plug's own record (fakes/journal.ts): what it did, by its own clock. */
+export type PlugJournalEntry = {
+  device: string;
+  what: "start" | "command" | "lease";
+  /** The command's id; null for a start or a fall-back. */
+  id: string | null;
+  on: boolean;
+  /** The state changed (a start always counts as unchanged). */
+  changed: boolean;
+  atMs: number;
 };
 
 export type PlugStats = { commands: number; malformed: number; reports: number; publishFailures: number; fallbacks: number };
@@ -69,6 +83,7 @@ export async function startPlugDevice(o: PlugDeviceOptions): Promise<PlugDevice>
   const stats: PlugStats = { commands: 0, malformed: 0, reports: 0, publishFailures: 0, fallbacks: 0 };
 
   let state = initialPlugState(config, now());
+  o.journal?.({ device: o.device, what: "start", id: null, on: state.on, changed: false, atMs: now() });
   let lastReportMs = -Infinity;
   let closing: Promise<void> | undefined;
   const publishes = inFlight();
@@ -98,6 +113,7 @@ export async function startPlugDevice(o: PlugDeviceOptions): Promise<PlugDevice>
     state = applyCommand(config, state, command, atMs, jitter());
     stats.commands++;
     if (state.on !== was) o.onSwitch?.(state.on, atMs, "command");
+    o.journal?.({ device: o.device, what: "command", id: command.id, on: state.on, changed: state.on !== was, atMs });
     log.debug({ id: command.id, on: command.on, lease_s: command.lease_s }, "command");
     // Echo the id even when the state is unchanged: that is the acknowledgement.
     return report(atMs);
@@ -137,6 +153,7 @@ export async function startPlugDevice(o: PlugDeviceOptions): Promise<PlugDevice>
       state = fallBack(config, state, nowMs, jitter());
       stats.fallbacks++;
       if (state.on !== was) o.onSwitch?.(state.on, nowMs, "lease");
+      o.journal?.({ device: o.device, what: "lease", id: null, on: state.on, changed: state.on !== was, atMs: nowMs });
       log.info({ on: state.on }, "lease ran out: fail-safe state");
       await report(nowMs);
       return;

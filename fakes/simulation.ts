@@ -9,6 +9,7 @@ import { loadSiteLayout, readDeviceSecrets, type SiteLayout } from "./layout";
 import { startPlugDevice, type PlugDevice } from "./plug-device";
 import { startSensorDevice, type SensorDevice } from "./sensor-device";
 import { seedFrom } from "./random";
+import { plugJournalWriter } from "./journal";
 import type { Climate } from "./weather";
 
 export type SimulationOptions = {
@@ -37,6 +38,10 @@ export type SimulationOptions = {
   sensorIntervalMs: number;
   plugReportEveryMs: number;
   reconnectPeriod: number;
+  /** Each plug's journal (fakes/journal.ts) is appended here when set. */
+  journalFile?: string;
+  /** Device ids of plugs and sensors left out (run on their own elsewhere, e.g. fakes/one-plug.ts). */
+  except?: readonly string[];
   logger?: Logger;
 };
 
@@ -84,7 +89,10 @@ export async function createSimulation(options: Partial<SimulationOptions> = {})
   const simStart = o.startMs ?? realStart;
   const now = o.now ?? (() => simStart + (Date.now() - realStart) * o.speed);
 
-  const layout = await layoutOf(o);
+  const full = await layoutOf(o);
+  const left = new Set(o.except ?? []);
+  const layout: SiteLayout = { ...full, plugs: full.plugs.filter((p) => !left.has(p.deviceId)), sensors: full.sensors.filter((s) => !left.has(s.deviceId)) };
+  const journal = o.journalFile ? plugJournalWriter(o.journalFile) : undefined;
   const secrets = o.secrets ?? (await readDeviceSecrets(o.secretsFile));
   const site = layout.site.slug;
 
@@ -133,6 +141,7 @@ export async function createSimulation(options: Partial<SimulationOptions> = {})
         reconnectPeriod: o.reconnectPeriod,
         seed: seedFrom(p.deviceId, o.seed),
         logger: log,
+        journal,
         onSwitch: (on, atMs, cause) => log.info({ plug: p.deviceId, on, at: new Date(atMs).toISOString(), cause }, "plug switched"),
       });
       plugs.set(p.deviceId, device);

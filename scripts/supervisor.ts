@@ -44,6 +44,8 @@ export type Supervisor = {
   readonly pid: number | undefined;
   /** Restarts so far, in all. */
   readonly restarts: number;
+  /** Times the service stopped without being asked to (each restart follows one). */
+  readonly deaths: number;
   /** The service's last lines of output, oldest first. */
   tail(): string[];
   /** Resolves with the pid of the next process started after this call. */
@@ -94,6 +96,7 @@ export async function superviseService(
   let exited: Promise<void> = Promise.resolve();
   let restartTimer: NodeJS.Timeout | undefined;
   let restarts = 0;
+  let deaths = 0;
   const restartTimes: number[] = [];
   let startWaiters: ((pid: number) => void)[] = [];
   let giveUp!: () => void;
@@ -118,6 +121,7 @@ export async function superviseService(
 
   const onDeath = (code: number | null, signal: NodeJS.Signals | null) => {
     if (state === "stopped") return;
+    deaths++;
     const now = Date.now();
     while (restartTimes.length && now - restartTimes[0]! > o.windowMs) restartTimes.shift();
     if (restartTimes.length >= o.maxRestarts) {
@@ -191,6 +195,9 @@ export async function superviseService(
     },
     get restarts() {
       return restarts;
+    },
+    get deaths() {
+      return deaths;
     },
     tail: () => ring.lines(),
     nextStart: () => new Promise<number>((resolve) => startWaiters.push(resolve)),

@@ -113,6 +113,8 @@ async function main() {
     ...(runsVitest
       ? [["unit, component and integration tests", () => run(bin("vitest"), ["run", ...projects, ...args.filter((a) => !paths.includes(a) || vitestPaths.includes(a))], env)] as [string, () => Promise<number>]]
       : []),
+    // The fault suite's quick scenarios start a stack of their own (scripts/faults.ts).
+    ...(paths.length === 0 ? [["fault suite (quick scenarios)", () => run(bin("tsx"), ["scripts/faults.ts", "--quick"], process.env)] as [string, () => Promise<number>]] : []),
     ...(runsBrowser ? [["browser journeys", () => browserJourneys(env)] as [string, () => Promise<number>]] : []),
   ];
   for (const [label, step] of steps) {
