@@ -2,6 +2,15 @@
 // colons; and pruning the ones older than a number of days.
 import { readdirSync, rmSync } from "node:fs";
 import path from "node:path";
+import { dataFolder } from "../common";
+
+/** CLOCHE_BACKUP_DIR, or .data/backups in the project (git-ignored with the rest of .data). */
+export function defaultBackupFolder() {
+  return path.resolve(process.env.CLOCHE_BACKUP_DIR || path.join(dataFolder, "backups"));
+}
+
+export const formatSize = (bytes: number) =>
+  bytes < 1024 * 1024 ? `${(bytes / 1024).toFixed(1)} KiB` : `${(bytes / 1024 / 1024).toFixed(1)} MiB`;
 
 export function backupFileName(database: string, at: Date) {
   return `${database}-${at.toISOString().replace(/\.\d{3}Z$/, "Z").replaceAll(":", "-")}.sql.gz`;
