@@ -145,7 +145,9 @@ export async function runClient(
       throw error;
     })]);
     if (code !== 0) {
-      throw new BackupError(`${path.basename(program)} failed (exit ${code}): ${stderr.trim() || "no message"}`);
+      // The client echoes the failed statement around its ERROR line; the ERROR line says it.
+      const errors = stderr.split("\n").filter((line) => /^ERROR \d+/.test(line));
+      throw new BackupError(`${path.basename(program)} failed (exit ${code}): ${(errors.length ? errors.join(" ") : stderr).trim() || "no message"}`);
     }
   } finally {
     rmSync(folder, { recursive: true, force: true });

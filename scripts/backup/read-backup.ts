@@ -33,12 +33,22 @@ export async function readBackup(file: string): Promise<BackupFile> {
     throw new BackupError(`${file} is not a Cloche backup: it is not gzip-compressed (backups are the .sql.gz files \`npm run backup\` writes).`);
   }
   const scanner = new DumpScanner();
+  let formatError: DumpFormatError | undefined;
   try {
     await pipeline(createReadStream(file), createGunzip(), async (chunks: AsyncIterable<Buffer>) => {
-      for await (const chunk of chunks) scanner.push(chunk);
+      for await (const chunk of chunks) {
+        try {
+          scanner.push(chunk);
+        } catch (error) {
+          // Leaving the loop aborts the pipeline, which then reports the abort, not this.
+          formatError = error as DumpFormatError;
+          throw error;
+        }
+      }
     });
     return { ...scanner.finish(), file, bytes };
-  } catch (error) {
+  } catch (caught) {
+    const error = formatError ?? caught;
     if (error instanceof DumpFormatError) throw new BackupError(`${file} cannot be restored: ${error.message}.`);
     const code = (error as NodeJS.ErrnoException).code;
     if (code?.startsWith("Z_")) {
