@@ -152,7 +152,11 @@ async function main() {
       result.migrations < result.knownMigrations
         ? `  The backup is from an older Cloche (${result.migrations} of ${result.knownMigrations} migrations); \`npm start\` applies the rest.`
         : "",
-      !options.database || options.database === url.database ? "  Start Cloche again with `npm start`." : "",
+      target === url.database
+        ? "  Start Cloche again with `npm start`."
+        : admin !== url.login
+          ? `  ${target} was made by the private MariaDB's root: Cloche's own user ${url.login.user} may use only ${url.database}.`
+          : "",
     ]
       .filter(Boolean)
       .join("\n"),
