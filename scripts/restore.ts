@@ -104,8 +104,10 @@ async function main() {
     throw new BackupError(`Could not reach the database server at ${url.where}: ${error.message}`);
   });
   let replacing: { counts: Map<string, number> } | null = null;
+  let exists = false;
   try {
-    if (await databaseExists(connection, target)) {
+    exists = await databaseExists(connection, target);
+    if (exists) {
       const tables = (await baseTables(connection, target)).map((t) => t.name);
       if (tables.length && !tables.includes(MIGRATIONS_TABLE)) {
         throw new BackupError(`Database ${target} on ${url.where} holds tables that are not Cloche's; not replacing it. Choose another with --database NAME.`);
@@ -127,13 +129,13 @@ async function main() {
 
   const plan = replacing
     ? [`This replaces ALL data in database ${target} on ${url.where}, which now has:`, formatCounts(replacing.counts), "with the backup"]
-    : [`This creates database ${target} on ${url.where} from the backup`];
+    : [`This ${exists ? "fills the empty" : "creates"} database ${target} on ${url.where} from the backup`];
   console.log([...plan, describeFile(backup), ""].join("\n"));
   if (!options.yes) {
     if (!process.stdin.isTTY) {
       throw new BackupError("Not restoring: there is no terminal to ask for confirmation on. Add --yes to restore without asking.");
     }
-    if (!(await confirm(`Type yes to ${replacing ? "replace" : "create"} database ${target}: `))) {
+    if (!(await confirm(`Type yes to ${replacing ? "replace" : exists ? "fill" : "create"} database ${target}: `))) {
       console.log("[restore] nothing was changed.");
       return;
     }
