@@ -2,6 +2,7 @@ import type { Metadata, Viewport } from "next";
 import localFont from "next/font/local";
 import { connection } from "next/server";
 import type { ReactNode } from "react";
+import { ZodWithoutEval } from "@/components/security/ZodWithoutEval";
 import "./globals.css";
 
 const inter = localFont({
@@ -28,7 +29,10 @@ export default async function RootLayout({ children }: { children: ReactNode }) 
   await connection();
   return (
     <html lang="en" className={inter.variable}>
-      <body className="min-h-dvh font-sans">{children}</body>
+      <body className="min-h-dvh font-sans">
+        <ZodWithoutEval />
+        {children}
+      </body>
     </html>
   );
 }
