@@ -29,7 +29,9 @@ const chartDrawn = async (page: Page) => {
   await expect.poll(() => page.locator("main canvas").count(), { timeout: 20_000 }).toBeGreaterThan(0);
 };
 
-type Visit = { name: string; path: string; status?: number; interact?: (page: Page) => Promise<void> };
+/** What the page fetched since it was opened: URL paths with their status. */
+type Fetched = string[];
+type Visit = { name: string; path: string; status?: number; interact?: (page: Page, fetched: Fetched) => Promise<void> };
 
 const signedOut: Visit[] = [
   {
@@ -64,8 +66,8 @@ const signedIn: Visit[] = [
     name: "a plug's override",
     path: `${site}/plugs/${demoId("plug:glass-heater")}/override`,
     // The page follows the plug through server-sent events (connect-src).
-    interact: async (page) => {
-      await expect.poll(() => page.evaluate(() => performance.getEntriesByType("resource").some((e) => e.name.includes("/events"))), { timeout: 10_000 }).toBe(true);
+    interact: async (_page, fetched) => {
+      await expect.poll(() => fetched.some((f) => /\/events 200$/.test(f)), { timeout: 10_000 }).toBe(true);
     },
   },
   { name: "devices", path: `${site}/devices` },
@@ -75,7 +77,7 @@ const signedIn: Visit[] = [
   { name: "settings", path: `${site}/settings` },
   { name: "history", path: `${site}/history` },
   { name: "reports", path: `${site}/reports` },
-  { name: "degree-days", path: `${site}/reports/degree-days`, interact: chartDrawn },
+  { name: "degree-days", path: `${site}/reports/degree-days` },
   { name: "bills", path: `${site}/reports/bills` },
   { name: "tariffs", path: `${site}/reports/tariffs` },
   { name: "alerts", path: `${site}/alerts` },
@@ -132,14 +134,17 @@ async function visitAll(page: Page, visits: Visit[]) {
   page.on("console", (message) => {
     if (/Content.Security.Policy|Refused to|Permissions.Policy|Unrecognized feature/i.test(message.text())) consoleErrors.push(message.text());
   });
+  const fetched: Fetched = [];
+  page.on("response", (response) => fetched.push(`${new URL(response.url()).pathname} ${response.status()}`));
   const nonces = new Set<string>();
   for (const visit of visits) {
     consoleErrors.length = 0;
+    fetched.length = 0;
     const response = await page.goto(visit.path);
     expect(response?.status(), visit.name).toBe(visit.status ?? 200);
     nonces.add(await expectPolicy(page, response!, visit.name));
     await expectHydrated(page, visit.name);
-    await visit.interact?.(page);
+    await visit.interact?.(page, fetched);
     await page.waitForLoadState("networkidle").catch(() => undefined);
     expect(await page.evaluate(() => (window as unknown as { __cspViolations: string[] }).__cspViolations), `${visit.name}: CSP violations`).toEqual([]);
     expect(consoleErrors, `${visit.name}: console`).toEqual([]);
