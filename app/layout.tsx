@@ -1,6 +1,8 @@
 import type { Metadata, Viewport } from "next";
 import localFont from "next/font/local";
+import { connection } from "next/server";
 import type { ReactNode } from "react";
+import { ZodWithoutEval } from "@/components/security/ZodWithoutEval";
 import "./globals.css";
 
 const inter = localFont({
@@ -21,10 +23,16 @@ export const viewport: Viewport = {
   themeColor: "#34562c",
 };
 
-export default function RootLayout({ children }: { children: ReactNode }) {
+// Every page is rendered per request: its inline scripts must carry that response's CSP
+// nonce (proxy.ts), which a page prerendered at build time could not.
+export default async function RootLayout({ children }: { children: ReactNode }) {
+  await connection();
   return (
     <html lang="en" className={inter.variable}>
-      <body className="min-h-dvh font-sans">{children}</body>
+      <body className="min-h-dvh font-sans">
+        <ZodWithoutEval />
+        {children}
+      </body>
     </html>
   );
 }

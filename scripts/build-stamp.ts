@@ -11,7 +11,7 @@ const FOLDERS = ["app", "components", "lib"];
 const FILES = [
   "proxy.ts",
   "instrumentation.ts",
-  "next.config.mjs",
+  "next.config.ts",
   "postcss.config.mjs",
   "tailwind.config.ts",
   "tsconfig.json",

@@ -73,6 +73,10 @@ describe("the web app while MariaDB hangs", () => {
       const html = await page.text();
       expect(html).toContain("Cloche can’t reach its database");
       expect(html).toContain(DATABASE_UNAVAILABLE_MESSAGE);
+      // Its one style element carries the policy's nonce, so the page looks as it should.
+      const nonce = /'nonce-([^']+)'/.exec(page.headers.get("content-security-policy") ?? "")?.[1];
+      expect(nonce).toBeTruthy();
+      expect(html).toContain(`<style nonce="${nonce}">`);
     } finally {
       proxy.restore();
     }

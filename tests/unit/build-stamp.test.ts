@@ -5,7 +5,7 @@ describe("build stamp", () => {
   const inputs = buildInputs();
 
   it("covers the app, its config and the db modules the pages import", () => {
-    for (const file of ["app/layout.tsx", "app/globals.css", "proxy.ts", "next.config.mjs", "package-lock.json", "db/client.ts", "db/queries/live.ts", "db/schema/index.ts"]) {
+    for (const file of ["app/layout.tsx", "app/globals.css", "proxy.ts", "next.config.ts", "package-lock.json", "db/client.ts", "db/queries/live.ts", "db/schema/index.ts"]) {
       expect(inputs).toContain(file);
     }
   });
