@@ -1,3 +1,5 @@
+import { DATABASE_UNAVAILABLE_MESSAGE } from "@/lib/errors";
+
 /** What better-auth's client hands back when a request fails. */
 export type AuthClientError = { status?: number; message?: string; code?: string } | null | undefined;
 
@@ -7,6 +9,7 @@ export function authErrorMessage(error: AuthClientError, fallback: string): stri
   if (!error) return fallback;
   if (error.status === 429) return TOO_MANY_ATTEMPTS;
   if (!error.status) return "Could not reach Cloche. Check your connection and try again.";
+  if (error.status === 503) return DATABASE_UNAVAILABLE_MESSAGE;
   if (error.status >= 500) return "Something went wrong on our side. Please try again.";
   return error.message || fallback;
 }

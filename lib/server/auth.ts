@@ -5,6 +5,7 @@ import { createAuthMiddleware } from "better-auth/api";
 import { nextCookies } from "better-auth/next-js";
 import { randomUUID } from "node:crypto";
 import { getDb } from "@/db/client";
+import { isDatabaseUnreachable } from "@/lib/database-errors";
 import * as schema from "@/db/schema";
 import { createSiteForOwner } from "@/db/queries/sites";
 import { assertUsable, getInvitationByToken } from "@/db/queries/invitations";
@@ -52,7 +53,14 @@ function createAuth() {
   const e = env();
   return betterAuth({
     appName: "Cloche",
-    logger: { level: e.NODE_ENV === "test" ? "error" : "warn" },
+    logger: {
+      level: e.NODE_ENV === "test" ? "error" : "warn",
+      // A database that does not answer is one line, not a stack per request.
+      log(level, message, ...args) {
+        if (args.some(isDatabaseUnreachable)) return console.error(`[auth] ${level}: the database did not answer (${message})`);
+        console[level === "debug" ? "log" : level](`[auth] ${message}`, ...args);
+      },
+    },
     secret: e.BETTER_AUTH_SECRET,
     baseURL: e.BETTER_AUTH_URL,
     trustedOrigins: trustedOrigins(e),

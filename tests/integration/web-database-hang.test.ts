@@ -9,7 +9,7 @@ import * as healthRoute from "@/app/api/health/route";
 import { NextRequest } from "next/server";
 import { DATABASE_UNAVAILABLE_MESSAGE } from "@/lib/errors";
 import { proxy as pageProxy } from "@/proxy";
-import { BASE, call, signUp, type Account } from "../support/http";
+import { BASE, auth, call, signUp, type Account } from "../support/http";
 import { startTcpProxy, type TcpProxy } from "../support/tcp-proxy";
 
 const TIMEOUT_MS = 1500;
@@ -62,6 +62,11 @@ describe("the web app while MariaDB hangs", () => {
       const health = await timed(() => healthRoute.GET());
       expect(health.response.status).toBe(503);
       expect(health.ms).toBeLessThan(TIMEOUT_MS + 1000);
+
+      // Signing in needs the database too: the sign-in library's own 500 becomes the same 503.
+      const signingIn = await auth("/sign-in/email", { email: owner.email, password: owner.password });
+      expect(signingIn.status).toBe(503);
+      expect(await signingIn.json()).toEqual({ error: { code: "unavailable", message: DATABASE_UNAVAILABLE_MESSAGE } });
 
       // A page is answered before it renders: a 503 page that says what is wrong.
       const pageStarted = performance.now();
