@@ -32,6 +32,8 @@ import { createEnergyRollup } from "./energy-rollup";
 import { createSwitchLog } from "./switch-log";
 import { createSwitching } from "./switching";
 import { createTimers } from "./timers";
+import { createTrafficLog } from "./traffic-log";
+import type { TrafficLimits } from "@/lib/mqtt/traffic-limit";
 
 export type ControllerOptions = {
   databaseUrl: string;
@@ -61,6 +63,10 @@ export type ControllerOptions = {
   /** A metering plug's counter is kept at most this often (and at every change of state). */
   meterSampleMs: number;
   heartbeatMs: number;
+  /** The embedded broker's per-device limits (its defaults where unset). */
+  deviceLimits?: Partial<TrafficLimits>;
+  /** How often what the broker's limits did is written to device_traffic. */
+  trafficLogMs: number;
   rawReadingRetentionMs: number;
   now: () => number;
   logger: Logger;
@@ -80,6 +86,7 @@ const defaults: Omit<ControllerOptions, "databaseUrl" | "controllerSecret" | "we
   energyRollupMs: 2000,
   meterSampleMs: 60_000,
   heartbeatMs: 5000,
+  trafficLogMs: 5000,
   rawReadingRetentionMs: 7 * 24 * 3600_000,
   now: Date.now,
 };
@@ -128,6 +135,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
   const alerts = createAlerts({ db, logger, now });
   const heartbeat = createHeartbeat({ db, instanceId: randomUUID(), sites: options.sites, everyMs: options.heartbeatMs, now, logger });
   const registry = createRegistry();
+  const trafficLog = createTrafficLog({ db, logger, everyMs: options.trafficLogMs });
   const alertWatch = createAlertWatch({ alerts, registry, logger, ackTimeoutMs: options.ackTimeoutMs, everyMs: options.alertWatchMs, now });
   const outbox = createOutbox({ logger });
   let staleReports = 0;
@@ -176,6 +184,8 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
       webappSecret: options.webappSecret,
       lookupDeviceSecret: (username) => lookupDeviceSecret(db, username),
       logger: logger.child({ part: "broker" }),
+      deviceLimits: options.deviceLimits,
+      onLimit: trafficLog.record,
     });
     mqttUrl = `mqtt://${options.mqttHost}:${broker.port}`;
   }
@@ -319,6 +329,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
       await switchLog.flush();
       await store.flush();
       await energy.flush();
+      await trafficLog.flush();
     },
     close: () =>
       (closing ??= (async () => {
@@ -331,6 +342,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
         await store.close();
         await heartbeat.stopped();
         await broker?.close();
+        await trafficLog.close();
         await pool.end();
         logger.info("controller stopped");
       })()),
