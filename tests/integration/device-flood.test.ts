@@ -7,6 +7,7 @@ import { and, eq } from "drizzle-orm";
 import { DateTime } from "luxon";
 import type { MqttClient } from "mqtt";
 import { getDb } from "@/db/client";
+import { getDevicesBySite } from "@/db/queries/devices";
 import { deviceTraffic, scheduleWindows, schedules } from "@/db/schema";
 import { createController, type Controller } from "@/controller/controller";
 import { startPlugDevice, type PlugDevice } from "@/fakes/plug-device";
@@ -155,6 +156,13 @@ describe("a flooding sensor", () => {
     // The calm sensor was never limited, and every reading it sent was passed on.
     await eventually(() => (heard.get(sensorTopic(calm.slug, "air-1")) ?? 0) >= calmSent + 1, 2000, "calm readings heard");
     expect(await trafficRow(calm, "sensor", "air-1")).toBeUndefined();
+
+    // The devices page's list carries it for that device alone, in its own site alone.
+    const listed = await getDevicesBySite({ siteId: flooded.siteId, includeRetired: false });
+    expect(listed.sensors.find((d) => d.deviceId === "air-1")?.traffic).toEqual({ slowed: 1, oversized: 0, disconnected: 1, lastAt: row!.lastAt });
+    expect(listed.plugs.every((d) => d.traffic === undefined)).toBe(true);
+    const calmListed = await getDevicesBySite({ siteId: calm.siteId, includeRetired: false });
+    expect([...calmListed.plugs, ...calmListed.sensors].every((d) => d.traffic === undefined)).toBe(true);
   });
 
   it("signs in again after its cool-off, with its limits as before", async () => {
@@ -163,6 +171,19 @@ describe("a flooding sensor", () => {
     expect(device.returnCode).toBe(0);
     device.socket.end();
     await device.closed;
+  });
+});
+
+describe("services", () => {
+  it("are never held back: the controller's own sign-in sends 200 messages at once", async () => {
+    const before = { ...controller.broker!.counts };
+    const startMs = Date.now();
+    // A sensor the site does not have: the controller's inbox drops these, the broker only passes them on.
+    const topic = sensorTopic(calm.slug, "no-such-sensor");
+    await Promise.all(Array.from({ length: 200 }, () => listener.publishAsync(topic, reading(11), { qos: 1 })));
+    // Under a device's limits the last of them would wait (200 − 20) / 5 = 36 s.
+    expect(Date.now() - startMs).toBeLessThan(5000);
+    expect(controller.broker!.counts).toEqual(before);
   });
 });
 
