@@ -40,6 +40,9 @@ export function guardConnection(socket: net.Socket, options: GuardOptions): Dupl
   let holding: NodeJS.Timeout | null = null;
   let wanting = true;
   let connected = false;
+  /** The device has finished sending: what is left goes through, then the end. */
+  let ended = false;
+  let endPushed = false;
 
   const stream = new Duplex({
     read() {
@@ -66,7 +69,8 @@ export function guardConnection(socket: net.Socket, options: GuardOptions): Dupl
   }
 
   function pump() {
-    while (!holding && wanting && !stream.destroyed && pending.length) {
+    if (endPushed) return;
+    while (!holding && (wanting || ended) && !stream.destroyed && pending.length) {
       if (bodyLeft > 0) {
         const n = Math.min(bodyLeft, pending.length);
         forward(pending.subarray(0, n));
@@ -83,7 +87,7 @@ export function guardConnection(socket: net.Socket, options: GuardOptions): Dupl
         if (!connected) {
           // The first packet must be a CONNECT (§3.1); the broker sees to the rest.
           if (header.type !== PACKET_CONNECT) verdict = { action: "pass" };
-          else if (header.remainingLength > options.connectMaxBytes) verdict = { action: "close" };
+          else if (header.remainingLength > options.connectMaxBytes) verdict = options.judge({ type: header.type, remainingLength: header.remainingLength });
           else if (pending.length < whole) break;
           else verdict = options.judge({ type: header.type, remainingLength: header.remainingLength, username: connectUsername(pending.subarray(0, whole)) });
           connected = true;
@@ -109,7 +113,10 @@ export function guardConnection(socket: net.Socket, options: GuardOptions): Dupl
       admitted = false;
       bodyLeft = whole;
     }
-    if (holding || !wanting) socket.pause();
+    if (ended && !holding) {
+      endPushed = true;
+      stream.push(null);
+    } else if (holding || !wanting) socket.pause();
     else socket.resume();
   }
 
@@ -118,10 +125,8 @@ export function guardConnection(socket: net.Socket, options: GuardOptions): Dupl
     pump();
   });
   socket.on("end", () => {
-    // What is held back is dropped: the device is gone.
-    if (holding) clearTimeout(holding);
-    holding = null;
-    stream.push(null);
+    ended = true;
+    pump();
   });
   socket.on("error", (error) => stream.destroy(error));
   socket.on("close", () => stream.destroy());
