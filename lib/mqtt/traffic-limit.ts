@@ -109,7 +109,8 @@ export const DEFAULT_DEVICE_LIMITS: TrafficLimits = {
   perSecond: 5,
   cutAfterMs: 10_000,
   coolOffMs: 30_000,
-  // The largest payload of the contract, plus room for the topic (under 200 bytes
-  // for the longest site and device ids) and the packet's own fields.
-  maxPacketBytes: MAX_PAYLOAD_BYTES + 512,
+  // Four times the largest payload of the contract. A payload a little over it is the
+  // controller's to drop and count as malformed, like any bad payload; one far over it
+  // is a fault or worse, and is refused before the broker buffers it.
+  maxPacketBytes: 4 * MAX_PAYLOAD_BYTES,
 };
