@@ -20,8 +20,9 @@ export function TrafficNote({ traffic, now, timeZone }: TrafficNoteProps) {
         .
       </p>
       <p className="mt-1">
-        Cloche slows down a device that sends far more often, or far more, than a plug or sensor needs, so the other devices keep working. While it is held
-        back its messages arrive late or not at all. Look for a faulty device or firmware, or an automation that sends to it in a loop.
+        Cloche slows down a device that sends far more often, or far larger messages, than a plug or sensor needs, so the other devices keep working.
+        While it is held back its messages arrive late or not at all. Look for a faulty device or firmware, or a script or automation that uses its
+        sign-in and sends in a loop.
       </p>
     </Notice>
   );
