@@ -133,8 +133,9 @@ export async function createBroker(options: BrokerOptions): Promise<Broker> {
     },
   });
 
-  // Without no-delay a QoS 1 round trip on loopback waits ~40 ms for delayed ACKs.
+  // Each connection goes through the per-device limits (controller/traffic-guard.ts) on its way in.
   const judge = createTrafficJudge({ limits, counts, logger, onLimit: options.onLimit, principalOf: (client) => principals.get(client) });
+  // Without no-delay a QoS 1 round trip on loopback waits ~40 ms for delayed ACKs.
   const server = net.createServer({ noDelay: true }, (socket) => {
     const stream = guardConnection(socket, { connectMaxBytes: limits.maxPacketBytes, judge: judge.connection(() => (stream as { client?: Client }).client) });
     aedes.handle(stream);
