@@ -15,6 +15,9 @@ import {
   type Principal,
 } from "@/lib/mqtt/credentials";
 import { sameSecret, verifyDeviceSecret } from "@/lib/server/device-secrets";
+import { DEFAULT_DEVICE_LIMITS, checkTrafficLimits, type TrafficLimits } from "@/lib/mqtt/traffic-limit";
+import { createTrafficJudge, type LimitEvent } from "./traffic-judge";
+import { guardConnection } from "./traffic-guard";
 
 export type BrokerOptions = {
   host: string;
@@ -33,11 +36,29 @@ export type BrokerOptions = {
    */
   lookUpDeviceSecret?: (username: string) => Promise<string | null>;
   logger: Logger;
+  /** Per-device limits on rate and size; the controller and the web app have none. */
+  deviceLimits?: Partial<TrafficLimits>;
+  /** Told each time a device is held back (once a spell), refused a packet too large, or disconnected. */
+  onLimit?: (event: LimitEvent) => void;
+};
+
+export type BrokerCounts = {
+  refusedLogins: number;
+  refusedPublishes: number;
+  refusedSubscriptions: number;
+  /** Spells of a device being held back for sending too fast. */
+  slowed: number;
+  /** Packets refused (and their devices disconnected) for being too large. */
+  oversized: number;
+  /** Devices disconnected for going on too fast. */
+  disconnected: number;
+  /** Sign-ins refused while a disconnected device cools off. */
+  refusedCoolingOff: number;
 };
 
 export type Broker = {
   port: number;
-  counts: { refusedLogins: number; refusedPublishes: number; refusedSubscriptions: number };
+  counts: BrokerCounts;
   /** The controller's own way in: no socket, no encoding, no acknowledgements. */
   link: (options: LinkOptions) => Promise<BrokerLink>;
   /**
@@ -62,7 +83,16 @@ function authError(message: string) {
 
 export async function createBroker(options: BrokerOptions): Promise<Broker> {
   const { logger } = options;
-  const counts = { refusedLogins: 0, refusedPublishes: 0, refusedSubscriptions: 0 };
+  const counts: BrokerCounts = {
+    refusedLogins: 0,
+    refusedPublishes: 0,
+    refusedSubscriptions: 0,
+    slowed: 0,
+    oversized: 0,
+    disconnected: 0,
+    refusedCoolingOff: 0,
+  };
+  const limits = checkTrafficLimits({ ...DEFAULT_DEVICE_LIMITS, ...options.deviceLimits });
 
   const aedes = await Aedes.createBroker({
     authenticate(client, username, password, done) {
@@ -118,8 +148,13 @@ export async function createBroker(options: BrokerOptions): Promise<Broker> {
     },
   });
 
+  // Each connection goes through the per-device limits (controller/traffic-guard.ts) on its way in.
+  const judge = createTrafficJudge({ limits, counts, logger, onLimit: options.onLimit, principalOf: (client) => principals.get(client) });
   // Without no-delay a QoS 1 round trip on loopback waits ~40 ms for delayed ACKs.
-  const server = net.createServer({ noDelay: true }, aedes.handle);
+  const server = net.createServer({ noDelay: true }, (socket) => {
+    const stream = guardConnection(socket, { connectMaxBytes: limits.maxPacketBytes, judge: judge.connection(() => (stream as { client?: Client }).client) });
+    aedes.handle(stream);
+  });
   await new Promise<void>((resolve, reject) => {
     server.once("error", reject);
     server.listen({ host: options.host, port: options.port }, () => resolve());

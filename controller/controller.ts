@@ -33,6 +33,8 @@ import { createEnergyRollup } from "./energy-rollup";
 import { createSwitchLog } from "./switch-log";
 import { createSwitching } from "./switching";
 import { createTimers } from "./timers";
+import { createTrafficLog } from "./traffic-log";
+import type { TrafficLimits } from "@/lib/mqtt/traffic-limit";
 
 export type ControllerOptions = {
   databaseUrl: string;
@@ -62,6 +64,10 @@ export type ControllerOptions = {
   /** A metering plug's counter is kept at most this often (and at every change of state). */
   meterSampleMs: number;
   heartbeatMs: number;
+  /** The embedded broker's per-device limits (its defaults where unset). */
+  deviceLimits?: Partial<TrafficLimits>;
+  /** How often what the broker's limits did is written to device_traffic. */
+  trafficLogMs: number;
   rawReadingRetentionMs: number;
   /**
    * The longest wait for one database statement. Nothing between a reading and the
@@ -87,6 +93,7 @@ const defaults: Omit<ControllerOptions, "databaseUrl" | "controllerSecret" | "we
   energyRollupMs: 2000,
   meterSampleMs: 60_000,
   heartbeatMs: 5000,
+  trafficLogMs: 5000,
   rawReadingRetentionMs: 7 * 24 * 3600_000,
   databaseTimeoutMs: 10_000,
   now: Date.now,
@@ -139,6 +146,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
   const credentials = createCredentials();
   // Started once the configuration (and with it the devices' credentials) is in.
   let broker: Broker | null = null;
+  const trafficLog = createTrafficLog({ db, logger, everyMs: options.trafficLogMs });
   const alertWatch = createAlertWatch({ alerts, registry, logger, ackTimeoutMs: options.ackTimeoutMs, everyMs: options.alertWatchMs, now });
   const outbox = createOutbox({ logger });
   let staleReports = 0;
@@ -195,6 +203,8 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
         return found?.secretHash ?? null;
       },
       logger: logger.child({ part: "broker" }),
+      deviceLimits: options.deviceLimits,
+      onLimit: trafficLog.record,
     });
     mqttUrl = `mqtt://${options.mqttHost}:${broker.port}`;
   }
@@ -335,6 +345,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
       await switchLog.flush();
       await store.flush();
       await energy.flush();
+      await trafficLog.flush();
     },
     close: () =>
       (closing ??= (async () => {
@@ -347,6 +358,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
         await store.close();
         await heartbeat.stopped();
         await broker?.close();
+        await trafficLog.close();
         await pool.end();
         logger.info("controller stopped");
       })()),

@@ -7,6 +7,12 @@ const schema = z.object({
   CLOCHE_MQTT_CONTROLLER_SECRET: z.string({ error: "CLOCHE_MQTT_CONTROLLER_SECRET is required" }).min(16),
   CLOCHE_MQTT_WEBAPP_SECRET: z.string({ error: "CLOCHE_MQTT_WEBAPP_SECRET is required" }).min(16),
   CLOCHE_SITES: z.string().optional(),
+  // The embedded broker's per-device limits (lib/mqtt/traffic-limit.ts has the defaults and why).
+  CLOCHE_DEVICE_BURST: z.coerce.number().int().min(1).optional(),
+  CLOCHE_DEVICE_PER_SECOND: z.coerce.number().positive().optional(),
+  CLOCHE_DEVICE_CUT_AFTER_S: z.coerce.number().positive().optional(),
+  CLOCHE_DEVICE_COOL_OFF_S: z.coerce.number().positive().optional(),
+  CLOCHE_DEVICE_MAX_PACKET_BYTES: z.coerce.number().int().min(256).optional(),
   LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace"]).default("info"),
 });
 
@@ -18,4 +24,17 @@ export function controllerEnv(source: NodeJS.ProcessEnv = process.env) {
     );
   }
   return parsed.data;
+}
+
+/** The per-device limits the environment sets; the broker's defaults fill the rest. */
+export function deviceLimitsFromEnv(env: ReturnType<typeof controllerEnv>) {
+  const seconds = (s: number | undefined) => (s === undefined ? undefined : s * 1000);
+  const limits = {
+    burst: env.CLOCHE_DEVICE_BURST,
+    perSecond: env.CLOCHE_DEVICE_PER_SECOND,
+    cutAfterMs: seconds(env.CLOCHE_DEVICE_CUT_AFTER_S),
+    coolOffMs: seconds(env.CLOCHE_DEVICE_COOL_OFF_S),
+    maxPacketBytes: env.CLOCHE_DEVICE_MAX_PACKET_BYTES,
+  };
+  return Object.fromEntries(Object.entries(limits).filter(([, v]) => v !== undefined)) as Partial<Record<keyof typeof limits, number>>;
 }

@@ -1,7 +1,7 @@
 // `npm run controller`: the controller with its embedded broker (or MQTT_URL's).
 import pino from "pino";
 import { createController } from "./controller";
-import { controllerEnv } from "./env";
+import { controllerEnv, deviceLimitsFromEnv } from "./env";
 
 const env = controllerEnv();
 const logger = pino({ name: "controller", level: env.LOG_LEVEL });
@@ -12,6 +12,7 @@ const controller = await createController({
   mqttPort: env.CLOCHE_MQTT_PORT,
   controllerSecret: env.CLOCHE_MQTT_CONTROLLER_SECRET,
   webappSecret: env.CLOCHE_MQTT_WEBAPP_SECRET,
+  deviceLimits: deviceLimitsFromEnv(env),
   sites: env.CLOCHE_SITES?.split(",").map((s) => s.trim()).filter(Boolean),
   logger,
 });

@@ -6,7 +6,13 @@ import { Notice } from "@/components/ui/Notice";
 import { groupBy } from "@/lib/group-by";
 import { DeviceRow, type DeviceRowData } from "./DeviceRow";
 
-type Listed = Omit<DeviceRowData, "lastSeenAt" | "retiredAt"> & { houseId: string; houseName: string; lastSeenAt: string | null; retiredAt: string | null };
+type Listed = Omit<DeviceRowData, "lastSeenAt" | "retiredAt" | "traffic"> & {
+  houseId: string;
+  houseName: string;
+  lastSeenAt: string | null;
+  retiredAt: string | null;
+  traffic?: Omit<NonNullable<DeviceRowData["traffic"]>, "lastAt"> & { lastAt: string | null };
+};
 export type DeviceListJson = { plugs: Listed[]; sensors: Listed[] };
 type Answer = DeviceListJson & { at: string };
 type Fetched = DeviceListJson & { at: number };
@@ -18,7 +24,13 @@ async function fetchDevices(url: string): Promise<Fetched> {
   return { plugs: body.plugs, sensors: body.sensors, at: new Date(body.at).getTime() };
 }
 
-const asRow = (d: Listed): DeviceRowData => ({ ...d, lastSeenAt: d.lastSeenAt ? new Date(d.lastSeenAt) : null, retiredAt: d.retiredAt ? new Date(d.retiredAt) : null });
+const date = (at: string | null) => (at ? new Date(at) : null);
+const asRow = (d: Listed): DeviceRowData => ({
+  ...d,
+  lastSeenAt: date(d.lastSeenAt),
+  retiredAt: date(d.retiredAt),
+  traffic: d.traffic && { ...d.traffic, lastAt: date(d.traffic.lastAt) },
+});
 
 type DeviceListProps = { siteId: string; slug: string; timeZone: string; houses: { id: string; name: string }[]; initial: DeviceListJson; renderedAt: number };
 

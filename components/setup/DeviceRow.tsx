@@ -2,6 +2,8 @@ import Link from "next/link";
 import { DeviceStatus } from "@/components/houses/DeviceStatus";
 import { formatWatts } from "@/components/houses/format";
 import { APPLIANCE_KIND_LABELS, type ApplianceKind } from "@/lib/domain";
+import type { TrafficCounts } from "@/lib/device-traffic-words";
+import { TrafficNote } from "./TrafficNote";
 
 export type DeviceRowData = {
   id: string;
@@ -13,6 +15,7 @@ export type DeviceRowData = {
   retiredAt: Date | null;
   applianceKind?: string;
   applianceWatts?: number;
+  traffic?: TrafficCounts & { lastAt: Date | null };
 };
 
 /** One plug or sensor as a large link to its page: what it is, and whether it is heard. */
@@ -22,7 +25,7 @@ export function DeviceRow({ device, slug, now, timeZone }: { device: DeviceRowDa
       ? `${APPLIANCE_KIND_LABELS[device.applianceKind as ApplianceKind] ?? "Plug"}${device.applianceWatts ? `, ${formatWatts(device.applianceWatts)}` : ""}`
       : "Sensor";
   return (
-    <li>
+    <li className="flex flex-col gap-1.5">
       <Link
         href={`/sites/${slug}/devices/${device.kind}/${device.id}`}
         className="flex min-h-14 flex-col gap-1 rounded-lg border border-frost-200 bg-white px-4 py-3 hover:border-leaf-400 hover:bg-leaf-50 sm:flex-row sm:items-center sm:justify-between"
@@ -38,6 +41,7 @@ export function DeviceRow({ device, slug, now, timeZone }: { device: DeviceRowDa
         </span>
         {device.retiredAt ? null : <DeviceStatus online={device.online} lastSeenAt={device.lastSeenAt} now={now} timeZone={timeZone} />}
       </Link>
+      {device.traffic && !device.retiredAt ? <TrafficNote traffic={device.traffic} now={now} timeZone={timeZone} /> : null}
     </li>
   );
 }

@@ -4,6 +4,7 @@ import { getDb } from "@/db/client";
 import { deviceCredentials, houses, plugStates, plugs, sensorStates, sensors } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import type { DeviceKind } from "@/lib/mqtt/topics";
+import { getDeviceTrafficBySite, trafficKey, type DeviceTraffic } from "./device-traffic";
 
 /** A plug or sensor of the site by its record id; 404 when it is not there. */
 export async function getDeviceOfSite({ siteId, kind, id }: { siteId: string; kind: DeviceKind; id: string }) {
@@ -68,12 +69,14 @@ export type DeviceListItem = {
   /** Plugs only: the appliance and its watts. */
   applianceKind?: string;
   applianceWatts?: number;
+  /** What the broker's limits did when it sent too much or too large; absent when never. */
+  traffic?: DeviceTraffic;
 };
 
 /** Every plug and sensor of the site with its presence, by house; retired ones only when asked. */
 export async function getDevicesBySite({ siteId, includeRetired }: { siteId: string; includeRetired: boolean }) {
   const db = getDb();
-  const [plugRows, sensorRows] = await Promise.all([
+  const [plugRows, sensorRows, traffic] = await Promise.all([
     db
       .select({
         id: plugs.id,
@@ -108,12 +111,17 @@ export async function getDevicesBySite({ siteId, includeRetired }: { siteId: str
       .leftJoin(sensorStates, eq(sensorStates.sensorId, sensors.id))
       .where(and(eq(sensors.siteId, siteId), includeRetired ? undefined : isNull(sensors.retiredAt)))
       .orderBy(asc(houses.name), asc(sensors.name)),
+    getDeviceTrafficBySite({ siteId }),
   ]);
+  const withTraffic = (d: DeviceListItem): DeviceListItem => {
+    const t = traffic.get(trafficKey(d.kind, d.deviceId));
+    return t ? { ...d, traffic: t } : d;
+  };
   return {
     /** When presence was read: "last seen" is relative to it. */
     at: new Date(),
-    plugs: plugRows.map((p): DeviceListItem => ({ ...p, kind: "plug" })),
-    sensors: sensorRows.map((s): DeviceListItem => ({ ...s, kind: "sensor" })),
+    plugs: plugRows.map((p) => withTraffic({ ...p, kind: "plug" })),
+    sensors: sensorRows.map((s) => withTraffic({ ...s, kind: "sensor" })),
   };
 }
 
