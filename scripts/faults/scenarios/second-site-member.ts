@@ -48,7 +48,7 @@ async function run(context: FaultContext): Promise<FaultResult> {
       .replace("[plugId]", plug.id)
       .replace("[houseId]", plug.houseId)
       .replace("[kind]/[id]", `plug/${plug.id}`)
-      .replace(/\/\.$/, ""),
+      .replace(/\/$/, ""),
   );
   context.log(`${cases.length} route cases and ${pagePaths.length} pages, with the demo site's ids`);
 

@@ -4,8 +4,8 @@
 // raised; the sensor's return closes the alert and gives the heater back to its band.
 import type { FaultContext, FaultResult, FaultScenario } from "../scenario";
 import { watchController } from "../support/controller-watch";
-import { lastReadingId, lastSwitchId, loadSite, openAlerts, openDb, readingsAfter, switchesAfter, doubledCommands, repeatedSwitches, type SwitchRow } from "../support/db";
-import { closeDevice, connectDevice, publishReading, sleep, startScenarioPlug, waitFor, type DeviceLink } from "../support/devices";
+import { lastReadingId, lastSwitchId, loadSite, openAlerts, openDb, plugStates, readingsAfter, switchesAfter, doubledCommands, repeatedSwitches, type SwitchRow } from "../support/db";
+import { closeDevice, connectDevice, publishReading, startScenarioPlug, waitFor, type DeviceLink } from "../support/devices";
 import { makeScenarioHouse } from "../support/scenario-house";
 
 /** The shortest stale limit a plug may have (lib/schemas/plug.ts). */
@@ -26,18 +26,23 @@ async function run(context: FaultContext): Promise<FaultResult> {
     const plug = await startScenarioPlug(context.mqttUrl, { site: house.site, device: house.plug.deviceId, secret: house.plug.secret });
     const sensor = await connectDevice(context.mqttUrl, { site: house.site, kind: "sensor", device: house.sensor.deviceId, secret: house.sensor.secret });
     links.push(plug.link, sensor);
-    const firstSwitch = await lastSwitchId(db);
     const firstReading = await lastReadingId(db);
     const watch = await watchController(db);
+    // A new heater whose sensor has not been heard yet is in its fail-safe (on) at once; a
+    // warm reading puts it back to its band (off). The scenario counts switches from there.
+    await publishReading(sensor, house.site, house.sensor.deviceId, { temp_c: 15, at: new Date() });
+    const settled = await waitFor(async () => {
+      const state = (await plugStates(db, [house.plug.id])).get(house.plug.id);
+      return state?.on === false && state.pendingOn === null ? true : null;
+    }, SLACK_MS);
+    if (!settled) throw new Error("the scenario heater did not settle off after a warm first reading");
+    const firstSwitch = await lastSwitchId(db);
     const switches = () => switchesAfter(db, [house.plug.id], firstSwitch);
     const nextSwitch = (count: number, on: boolean, timeoutMs: number) =>
       waitFor(async () => {
         const rows = (await switches()).filter((r) => !r.withdrawnAt);
         return rows.length > count && rows.at(-1)!.toOn === on ? rows.at(-1)! : null;
       }, timeoutMs);
-
-    await publishReading(sensor, house.site, house.sensor.deviceId, { temp_c: 15, at: new Date() });
-    await sleep(1500);
 
     // Clock an hour ahead: a cold reading must still switch the heater on.
     const aheadSent = Date.now();
@@ -53,12 +58,6 @@ async function run(context: FaultContext): Promise<FaultResult> {
     if (!offBehind) failures.push("a warm reading from a sensor an hour behind did not switch the heater off");
     else context.log(`clock 1 h behind: 15 °C → heater off after ${offBehind.at.getTime() - behindSent} ms (${offBehind.cause})`);
 
-    const stored = await readingsAfter(db, house.sensor.id, firstReading);
-    for (const [sentMs, tempC, what] of [[aheadSent, 5, "ahead"], [behindSent, 15, "behind"]] as const) {
-      const row = stored.find((r) => r.tempC === tempC && Math.abs(r.at.getTime() - sentMs) <= ARRIVAL_SLACK_MS);
-      if (!row) failures.push(`the reading of the sensor an hour ${what} was not stored at its arrival (stored: ${stored.map((r) => `${r.tempC} °C at ${r.at.toISOString()}`).join(", ")})`);
-    }
-
     // Silence: no more readings. The heater must go to its fail-safe, and the alert open.
     const lastHeardMs = behindSent;
     context.log(`sensor silent from now; fail-safe and alert expected after ${STALE_AFTER_S} s`);
@@ -72,6 +71,13 @@ async function run(context: FaultContext): Promise<FaultResult> {
     if (!alert) failures.push("no silent-sensor alert was raised");
     else context.log(`silent-sensor alert raised ${(alertMs! / 1000).toFixed(1)} s after the last reading`);
 
+    // Readings are written in batches: by now the two of the wrong clocks are stored.
+    const stored = await readingsAfter(db, house.sensor.id, firstReading);
+    for (const [sentMs, tempC, what] of [[aheadSent, 5, "ahead"], [behindSent, 15, "behind"]] as const) {
+      const row = stored.find((r) => r.tempC === tempC && Math.abs(r.at.getTime() - sentMs) <= ARRIVAL_SLACK_MS);
+      if (!row) failures.push(`the reading of the sensor an hour ${what} was not stored at its arrival (stored: ${stored.map((r) => `${r.tempC} °C at ${r.at.toISOString()}`).join(", ")})`);
+    }
+
     // The sensor is back: the alert closes, the heater follows its band again (15 °C: off).
     await publishReading(sensor, house.site, house.sensor.deviceId, { temp_c: 15, at: new Date() });
     const back = await nextSwitch(3, false, SLACK_MS);
@@ -82,7 +88,7 @@ async function run(context: FaultContext): Promise<FaultResult> {
     const rows = await switches();
     const expected = [onAhead, offBehind, failsafe, back].filter((r): r is SwitchRow => r !== null);
     const extra = rows.filter((r) => !expected.some((x) => x.commandId === r.commandId));
-    if (extra.length) failures.push(`unexpected switches: ${extra.map((r) => `${r.cause} → ${r.toOn ? "on" : "off"}`).join(", ")}`);
+    if (extra.length) failures.push(`unexpected switches: ${extra.map(describe).join(", ")} (all: ${rows.map(describe).join(", ")})`);
     const doubled = doubledCommands(rows).length + repeatedSwitches(rows).length;
     if (doubled) failures.push(`${doubled} doubled switches`);
     const watched = await watch.stop();
@@ -97,6 +103,10 @@ async function run(context: FaultContext): Promise<FaultResult> {
     await house.remove();
     await db.end();
   }
+}
+
+function describe(r: SwitchRow) {
+  return `#${r.id} ${r.cause} → ${r.toOn ? "on" : "off"}${r.withdrawnAt ? " (withdrawn)" : ""}${r.ackAt ? "" : " (unconfirmed)"}`;
 }
 
 export const sensorSilentAndClockOff: FaultScenario = {

@@ -42,7 +42,7 @@ export async function makeScenarioHouse(
     widthM: 3,
     eaveHeightM: 1.8,
     ridgeHeightM: 2.6,
-    glazing: "single_poly",
+    glazing: "single_film",
   }, 201)) as { house: { id: string } };
   const remove = async () => {
     const answer = await call(context.url, owner, "DELETE", `${base}/houses/${house.id}`);
