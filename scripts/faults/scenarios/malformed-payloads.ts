@@ -108,9 +108,10 @@ async function run(context: FaultContext): Promise<FaultResult> {
     if (!switched) failures.push("a good cold reading after the flood did not switch the heater on within 15 s");
     else context.log(`good reading of 5 °C after the flood: heater on ${reactionMs} ms later, confirmed`);
     const rows = await switchesAfter(db, [house.plug.id], firstSwitchId);
-    const stray = rows.filter((r) => r !== switched && r.cause !== "default");
+    const stray = rows.filter((r) => r !== switched && r.cause !== "default" && r.fromOn !== null);
     if (stray.length) failures.push(`${stray.length} switches of the scenario heater came from the malformed reports (${stray.map((r) => r.cause).join(", ")})`);
 
+    failures.push(...(await house.remove()));
     return {
       figures: {
         switchesLost: switched ? 0 : 1,

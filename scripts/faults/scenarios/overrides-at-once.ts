@@ -32,9 +32,9 @@ type Sent = { plugId: string; bad: boolean; answer: Answer | null; error?: strin
 async function inForce(db: Db, plugIds: string[]) {
   const [rows] = await db.query(
     `SELECT id, plug_id AS plugId, \`on\`, starts_at AS startsAt FROM overrides
-      WHERE plug_id IN (?) AND cancelled_at IS NULL AND (ends_at IS NULL OR ends_at > NOW(3)) AND reason LIKE 'Fault suite %'
+      WHERE plug_id IN (?) AND cancelled_at IS NULL AND (ends_at IS NULL OR ends_at > ?) AND reason LIKE 'Fault suite %'
       ORDER BY starts_at, created_at`,
-    [plugIds],
+    [plugIds, new Date()],
   );
   const byPlug = new Map<string, { id: string; on: boolean; startsAt: Date }[]>();
   for (const r of rows as { id: string; plugId: string; on: number; startsAt: Date }[]) {

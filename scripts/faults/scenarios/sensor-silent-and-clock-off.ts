@@ -93,6 +93,7 @@ async function run(context: FaultContext): Promise<FaultResult> {
     if (doubled) failures.push(`${doubled} doubled switches`);
     const watched = await watch.stop();
     if (watched.crashes) failures.push("the controller stopped or restarted during the scenario");
+    failures.push(...(await house.remove()));
     return {
       figures: { switchesLost: 4 - expected.length, switchesDoubled: doubled, longestControlGapMs: failsafeMs, crashes: watched.crashes, serverErrors: null },
       extra: { staleAfterS: STALE_AFTER_S, failsafeAfterMs: failsafeMs ?? "none", alertAfterMs: alertMs ?? "none", readingsStored: stored.length },

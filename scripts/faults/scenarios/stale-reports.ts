@@ -73,6 +73,7 @@ async function run(context: FaultContext): Promise<FaultResult> {
     const watched = await watch.stop();
     if (watched.crashes) failures.push("the controller stopped or restarted during the scenario");
     const doubled = doubledCommands(rows).length + repeatedSwitches(rows).length;
+    failures.push(...(await house.remove()));
     return {
       figures: { switchesLost: 3 - [on1, off1, on2].filter((r) => rows.some((x) => x.commandId === r.commandId && x.ackAt)).length, switchesDoubled: doubled, longestControlGapMs: null, crashes: watched.crashes, serverErrors: null },
       extra: { realSwitches: 3, loggedRows: rows.length, duplicateReports: 5, lateReports: 6, outOfOrderReadings: 1, repeatedReadings: 3 },

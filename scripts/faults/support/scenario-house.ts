@@ -4,6 +4,8 @@
 // secret for each. Removed again at the end, with its devices and their switch log.
 import { randomBytes } from "node:crypto";
 import type { FaultContext } from "../scenario";
+import { lastReadingId, openDb } from "./db";
+import { sleep, waitFor } from "./devices";
 import { call, expectCall, signIn, type Session } from "./http";
 
 export const DEMO_OWNER = { email: "owner@fernhollow.example", password: "fernhollow-owner" };
@@ -15,7 +17,8 @@ export type ScenarioHouse = {
   sensor: { id: string; deviceId: string; secret: string };
   plug: { id: string; deviceId: string; secret: string };
   owner: Session;
-  remove: () => Promise<void>;
+  /** Removes the house (once); gives a failure when the site's readings stop being stored after it. */
+  remove: () => Promise<string[]>;
 };
 
 export type HeaterSettings = {
@@ -44,9 +47,23 @@ export async function makeScenarioHouse(
     ridgeHeightM: 2.6,
     glazing: "single_film",
   }, 201)) as { house: { id: string } };
-  const remove = async () => {
-    const answer = await call(context.url, owner, "DELETE", `${base}/houses/${house.id}`);
-    if (answer.status !== 204) context.log(`could not remove the scenario house (${answer.status}): ${answer.text.slice(0, 200)}`);
+  let removed = false;
+  const remove = async (): Promise<string[]> => {
+    if (removed) return [];
+    removed = true;
+    // Readings are written in batches about once a second: let the last ones land first.
+    await sleep(2500);
+    const db = openDb(context.databaseUrl);
+    try {
+      const lastId = await lastReadingId(db);
+      const answer = await call(context.url, owner, "DELETE", `${base}/houses/${house.id}`);
+      if (answer.status !== 204) return [`could not remove the scenario house (${answer.status}): ${answer.text.slice(0, 200)}`];
+      // The demo's sensors report every few seconds: their readings must go on being stored.
+      const flowing = await waitFor(async () => (await lastReadingId(db)) > lastId, 20_000);
+      return flowing ? [] : ["no reading of any sensor was stored in the 20 s after the scenario house was removed"];
+    } finally {
+      await db.end();
+    }
   };
   try {
     const { sensor } = (await expectCall(context.url, owner, "POST", `${base}/sensors`, { name: `Air ${tag}`, deviceId: `fault-air-${tag}`, houseId: house.id }, 201)) as {
