@@ -95,8 +95,9 @@ async function run(context: FaultContext): Promise<FaultResult> {
   const twoInForce = [...forced.values()].filter((list) => list.length > 1).length;
   if (twoInForce) failures.push(`${twoInForce} plugs were left with more than one override in force`);
   const wanted = new Map([...forced].map(([plugId, list]) => [plugId, list.at(-1)!]));
-  const states = await plugStates(db, plugIds);
-  const guardMs = Math.max(0, ...[...states.values()].map((s) => (s.guardUntil ? s.guardUntil.getTime() - Date.now() : 0)));
+  // A change may be held back by the anti-short-cycle guard for up to the plug's least time on or off.
+  const [guards] = await db.query("SELECT MAX(GREATEST(min_on_s, min_off_s)) AS s FROM plugs WHERE id IN (?)", [plugIds]);
+  const guardMs = Number((guards as { s: number | null }[])[0]?.s ?? 0) * 1000;
   context.log(`waiting up to ${Math.round((guardMs + 20_000) / 1000)} s for every plug to reach its override's state`);
   const settled = await waitFor(async () => {
     const now = await plugStates(db, plugIds);
