@@ -111,6 +111,8 @@ async function run(context: FaultContext): Promise<FaultResult> {
     const stray = rows.filter((r) => r !== switched && r.cause !== "default" && r.fromOn !== null);
     if (stray.length) failures.push(`${stray.length} switches of the scenario heater came from the malformed reports (${stray.map((r) => r.cause).join(", ")})`);
 
+    // Devices go before their house: the controller must not be left writing about rows that are gone.
+    for (const link of links.splice(0)) await closeDevice(link).catch(() => undefined);
     failures.push(...(await house.remove()));
     return {
       figures: {

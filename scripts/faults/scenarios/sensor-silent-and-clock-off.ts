@@ -5,7 +5,7 @@
 import type { FaultContext, FaultResult, FaultScenario } from "../scenario";
 import { watchController } from "../support/controller-watch";
 import { lastReadingId, lastSwitchId, loadSite, openAlerts, openDb, plugStates, readingsAfter, switchesAfter, doubledCommands, repeatedSwitches, type SwitchRow } from "../support/db";
-import { closeDevice, connectDevice, publishReading, startScenarioPlug, waitFor, type DeviceLink } from "../support/devices";
+import { closeDevice, connectDevice, publishReading, sleep, startScenarioPlug, waitFor, type DeviceLink } from "../support/devices";
 import { makeScenarioHouse } from "../support/scenario-house";
 
 /** The shortest stale limit a plug may have (lib/schemas/plug.ts). */
@@ -93,6 +93,8 @@ async function run(context: FaultContext): Promise<FaultResult> {
     if (doubled) failures.push(`${doubled} doubled switches`);
     const watched = await watch.stop();
     if (watched.crashes) failures.push("the controller stopped or restarted during the scenario");
+    // Devices go before their house: the controller must not be left writing about rows that are gone.
+    for (const link of links.splice(0)) await closeDevice(link).catch(() => undefined);
     failures.push(...(await house.remove()));
     return {
       figures: { switchesLost: 4 - expected.length, switchesDoubled: doubled, longestControlGapMs: failsafeMs, crashes: watched.crashes, serverErrors: null },

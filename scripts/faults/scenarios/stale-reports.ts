@@ -73,6 +73,8 @@ async function run(context: FaultContext): Promise<FaultResult> {
     const watched = await watch.stop();
     if (watched.crashes) failures.push("the controller stopped or restarted during the scenario");
     const doubled = doubledCommands(rows).length + repeatedSwitches(rows).length;
+    // Devices go before their house: the controller must not be left writing about rows that are gone.
+    for (const link of links.splice(0)) await closeDevice(link).catch(() => undefined);
     failures.push(...(await house.remove()));
     return {
       figures: { switchesLost: 3 - [on1, off1, on2].filter((r) => rows.some((x) => x.commandId === r.commandId && x.ackAt)).length, switchesDoubled: doubled, longestControlGapMs: null, crashes: watched.crashes, serverErrors: null },
