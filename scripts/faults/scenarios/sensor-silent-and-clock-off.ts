@@ -5,7 +5,7 @@
 import type { FaultContext, FaultResult, FaultScenario } from "../scenario";
 import { watchController } from "../support/controller-watch";
 import { lastReadingId, lastSwitchId, loadSite, openAlerts, openDb, plugStates, readingsAfter, switchesAfter, doubledCommands, repeatedSwitches, type SwitchRow } from "../support/db";
-import { closeDevice, connectDevice, publishReading, sleep, startScenarioPlug, waitFor, type DeviceLink } from "../support/devices";
+import { closeDevice, connectDevice, publishReading, startScenarioPlug, waitFor, type DeviceLink } from "../support/devices";
 import { makeScenarioHouse } from "../support/scenario-house";
 
 /** The shortest stale limit a plug may have (lib/schemas/plug.ts). */
