@@ -4,6 +4,7 @@
 // controller's switch-log writes, which take shared locks on the same rows through their
 // foreign keys; they are run through here.
 import type { Database } from "@/db/client";
+import { AppError } from "@/lib/errors";
 
 type Work<T> = Parameters<Database["transaction"]>[0] extends (tx: infer Tx) => Promise<unknown> ? (tx: Tx) => Promise<T> : never;
 
@@ -14,14 +15,30 @@ export function isLockConflict(error: unknown): boolean {
   return RETRYABLE.has((cause as { code?: string })?.code ?? "");
 }
 
-/** Runs `work` in a transaction, again (up to `attempts` times in all) when it lost a deadlock. `work` must start from scratch each time. */
-export async function transactionWithRetry<T>(db: Database, work: Work<T>, attempts = 3): Promise<T> {
+/**
+ * Runs `work` in a transaction, again (up to `attempts` times in all) when it lost a
+ * deadlock. `work` must start from scratch each time. The waits double with a random
+ * share (about 10, 20, 40, 80, 160 ms), so that many writers colliding at once (fifty
+ * override presses in flight) spread out instead of meeting again.
+ */
+export async function transactionWithRetry<T>(db: Database, work: Work<T>, attempts = 6): Promise<T> {
   for (let attempt = 1; ; attempt++) {
     try {
       return (await db.transaction(work as never)) as T;
     } catch (error) {
       if (attempt >= attempts || !isLockConflict(error)) throw error;
-      await new Promise((resolve) => setTimeout(resolve, 5 * attempt + Math.random() * 10));
+      const base = 10 * 2 ** (attempt - 1);
+      await new Promise((resolve) => setTimeout(resolve, base / 2 + Math.random() * base));
     }
+  }
+}
+
+/** The same, with a lock conflict that outlasted every attempt answered as a 409 in `message`'s words. */
+export async function transactionOrConflict<T>(db: Database, work: Work<T>, message: string): Promise<T> {
+  try {
+    return await transactionWithRetry(db, work);
+  } catch (error) {
+    if (isLockConflict(error)) throw new AppError("conflict", message);
+    throw error;
   }
 }

@@ -12,7 +12,9 @@ import { overrideEndsAt } from "@/lib/control/plan";
 import { loadSchedulesOfPlugs } from "@/db/plug-schedules";
 import { nextChange, type Schedule } from "@/lib/schedule";
 import type { OverrideInput } from "@/lib/schemas/override";
-import { transactionWithRetry } from "@/db/transaction";
+import { transactionOrConflict } from "@/db/transaction";
+
+const BUSY_PLUG = "Other changes to this plug were being saved at the same moment and this one could not get through; nothing was changed. Please try again.";
 import { recordAudit } from "./audit";
 
 export type OverridePlug = {
@@ -219,12 +221,13 @@ export async function createOverride({
   timeZone,
   userId,
   input,
-  now = new Date(),
+  now,
 }: {
   plug: OverridePlug;
   timeZone: string;
   userId: string;
   input: OverrideInput;
+  /** The press's instant; by default the moment the plug's lock is held, so the press that commits last starts last. */
   now?: Date;
 }): Promise<{ id: string; startsAt: Date; endsAt: Date | null; untilNextChange: boolean; stopsAt: Date | null; cancelled: string[] }> {
   if (plug.retiredAt) throw new AppError("conflict", "This plug is retired: it is no longer switched, so it cannot be overridden.");
@@ -232,36 +235,40 @@ export async function createOverride({
   // The schedule matters only for "until the schedule changes" (this one or one in force):
   // a phone's press should not wait for it otherwise.
   let plugSchedules = input.duration === "next_change" ? await getSchedulesOfPlug(db, plug.id) : null;
-  const next = plugSchedules ? nextChange(plugSchedules, timeZone, now) : null;
-  const end = overrideEnd(input, now, timeZone, next);
-  const row: StoredOverride = {
-    id: randomUUID(),
-    plugId: plug.id,
-    on: input.on,
-    startsAt: now,
-    endsAt: end.endsAt,
-    untilNextChange: end.untilNextChange,
-    userId,
-    reason: input.reason ?? "",
-    cancelledAt: null,
-    cancelledBy: null,
-    createdAt: now,
-  };
   const cancelled: string[] = [];
-  await transactionWithRetry(db, async (tx) => {
+  const made = await transactionOrConflict(db, async (tx) => {
     cancelled.length = 0;
     // One change at a time per plug: two presses at once must not leave two overrides in force.
     await tx.select({ id: plugs.id }).from(plugs).where(eq(plugs.id, plug.id)).for("update");
-    for (const o of await openOverrides(tx, plug.id, now)) {
+    // Taken under the lock: a press that waited for it must not start before the one it replaces.
+    const at = now ?? new Date();
+    const next = plugSchedules ? nextChange(plugSchedules, timeZone, at) : null;
+    const end = overrideEnd(input, at, timeZone, next);
+    const row: StoredOverride = {
+      id: randomUUID(),
+      plugId: plug.id,
+      on: input.on,
+      startsAt: at,
+      endsAt: end.endsAt,
+      untilNextChange: end.untilNextChange,
+      userId,
+      reason: input.reason ?? "",
+      cancelledAt: null,
+      cancelledBy: null,
+      createdAt: at,
+    };
+    for (const o of await openOverrides(tx, plug.id, at)) {
       if (o.untilNextChange && !o.endsAt) plugSchedules ??= await getSchedulesOfPlug(tx, plug.id);
-      if (!isActive(o, stopsAt(o, plugSchedules ?? [], timeZone), now)) continue;
-      await cancelRow(tx, o, plug, userId, now);
+      if (!isActive(o, stopsAt(o, plugSchedules ?? [], timeZone), at)) continue;
+      await cancelRow(tx, o, plug, userId, at);
       cancelled.push(o.id);
     }
     await tx.insert(overrides).values(row);
     await recordAudit(tx, { siteId: plug.siteId, userId, action: "override.create", entityType: "override", entityId: row.id, after: auditView(row, plug.name) });
-  });
-  return { id: row.id, startsAt: now, endsAt: end.endsAt, untilNextChange: end.untilNextChange, stopsAt: end.endsAt ?? next, cancelled };
+    return { row, end, next };
+  }, BUSY_PLUG);
+  const { row, end, next } = made;
+  return { id: row.id, startsAt: row.startsAt, endsAt: end.endsAt, untilNextChange: end.untilNextChange, stopsAt: end.endsAt ?? next, cancelled };
 }
 
 /** Cancels one of the plug's overrides; 404 when it is not the plug's, 409 when it has already stopped. */
@@ -280,7 +287,7 @@ export async function cancelOverride({
 }): Promise<{ id: string; cancelledAt: Date }> {
   const db = getDb();
   const plugSchedules = await getSchedulesOfPlug(db, plug.id);
-  await transactionWithRetry(db, async (tx) => {
+  await transactionOrConflict(db, async (tx) => {
     const [o] = await tx
       .select()
       .from(overrides)
@@ -290,6 +297,6 @@ export async function cancelOverride({
     if (o.cancelledAt) throw new AppError("conflict", "This override has already been cancelled.");
     if (!isActive(o, stopsAt(o, plugSchedules, timeZone), now)) throw new AppError("conflict", "This override has already ended.");
     await cancelRow(tx, o, plug, userId, now);
-  });
+  }, BUSY_PLUG);
   return { id: overrideId, cancelledAt: now };
 }
