@@ -254,6 +254,12 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
         const runtime = registry.plug(site, device);
         if (!runtime) return "unknown_plug";
         const plugTimeMs = Date.parse(report.at);
+        // A report older than one already heard (late, repeated) changes nothing, stored state included.
+        if (!switching.report(runtime, { on: report.on, cmd: report.cmd ?? null, plugTimeMs }, nowMs)) {
+          switchLog.present(runtime.config.id, { online: true, lastSeenAt: new Date(nowMs) });
+          alertWatch.heard(runtime, nowMs);
+          return;
+        }
         switchLog.present(runtime.config.id, {
           online: true,
           lastSeenAt: new Date(nowMs),
@@ -269,7 +275,6 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
             switchLog.meter(runtime.config.id, new Date(nowMs), Math.round(report.wh));
           }
         }
-        switching.report(runtime, { on: report.on, cmd: report.cmd ?? null, plugTimeMs }, nowMs);
         alertWatch.heard(runtime, nowMs);
       },
       presence(site, device, online, nowMs) {

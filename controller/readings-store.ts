@@ -5,7 +5,8 @@
 import { and, gte, lt, sql } from "drizzle-orm";
 import type { Logger } from "pino";
 import type { Database } from "@/db/client";
-import { readingMinutes, readings, sensorStates } from "@/db/schema";
+import { readingMinutes, readings, sensorStates, sensors } from "@/db/schema";
+import { isMissingParent, stillThere } from "./missing-parents";
 import { insertMany, upsertMany } from "@/db/bulk";
 
 export type ReadingRow = typeof readings.$inferInsert;
@@ -51,10 +52,25 @@ export function createReadingsStore(options: ReadingsStoreOptions) {
     for (const [id, seen] of sensorsNow) if (sensorsSeen.get(id) === seen) sensorsSeen.delete(id);
   }
 
+  /** Drops what waits for sensors deleted meanwhile; true when there was any. */
+  async function forgetDeletedSensors(): Promise<boolean> {
+    const present = await stillThere(db, sensors, sensors.id, [...queue.map((r) => r.sensorId), ...sensorsSeen.keys()]);
+    const before = queue.length + sensorsSeen.size;
+    queue = queue.filter((r) => present.has(r.sensorId));
+    for (const id of [...sensorsSeen.keys()]) if (!present.has(id)) sensorsSeen.delete(id);
+    const forgotten = before - queue.length - sensorsSeen.size;
+    if (forgotten) logger.warn({ forgotten }, "readings of sensors deleted meanwhile were dropped");
+    return forgotten > 0;
+  }
+
   function flush(force = false): Promise<void> {
     if (running) return running;
     if ((queue.length === 0 && sensorsSeen.size === 0) || (!force && Date.now() < retryAt)) return Promise.resolve();
     running = write()
+      .catch(async (error: unknown) => {
+        if (isMissingParent(error) && (await forgetDeletedSensors())) return write();
+        throw error;
+      })
       .then(() => {
         failures = 0;
         retryAt = 0;

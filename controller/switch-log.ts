@@ -8,7 +8,8 @@
 // wait here and go out in order when it is back.
 import type { Logger } from "pino";
 import type { Database } from "@/db/client";
-import { meterSamples, plugStates, switchEvents } from "@/db/schema";
+import { meterSamples, overrides, plugStates, plugs, switchEvents, user } from "@/db/schema";
+import { isMissingParent, stillThere } from "./missing-parents";
 import { insertMany, updateMany, upsertMany } from "@/db/bulk";
 import type { EnergyChange } from "@/db/energy-days";
 
@@ -104,10 +105,52 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
     if (written.size > 50_000) written.clear();
   }
 
+  /**
+   * Rows of plugs deleted meanwhile are dropped; an override or person deleted meanwhile
+   * is unlinked from its switch (as the foreign key's ON DELETE SET NULL would have).
+   * True when anything changed.
+   */
+  async function repairMissingParents(): Promise<boolean> {
+    const rows = [...queue.values()].map((q) => q.row);
+    const [plugsThere, overridesThere, usersThere] = await Promise.all([
+      stillThere(db, plugs, plugs.id, [...rows.map((r) => r.plugId), ...present.keys(), ...samples.map((m) => m.plugId)]),
+      stillThere(db, overrides, overrides.id, rows.map((r) => r.overrideId)),
+      stillThere(db, user, user.id, rows.map((r) => r.userId)),
+    ]);
+    let changed = 0;
+    for (const [commandId, queued] of [...queue]) {
+      const { row } = queued;
+      if (!plugsThere.has(row.plugId)) {
+        queue.delete(commandId);
+        changed++;
+        continue;
+      }
+      const unlink = { ...(row.overrideId && !overridesThere.has(row.overrideId) ? { overrideId: null } : {}), ...(row.userId && !usersThere.has(row.userId) ? { userId: null } : {}) };
+      if (Object.keys(unlink).length) {
+        queue.set(commandId, { row: { ...row, ...unlink }, version: queued.version });
+        changed++;
+      }
+    }
+    for (const plugId of [...present.keys()]) {
+      if (plugsThere.has(plugId)) continue;
+      present.delete(plugId);
+      changed++;
+    }
+    const keptSamples = samples.filter((m) => plugsThere.has(m.plugId));
+    changed += samples.length - keptSamples.length;
+    samples = keptSamples;
+    if (changed) logger.warn({ changed }, "switch-log rows of plugs, overrides or people deleted meanwhile were dropped or unlinked");
+    return changed > 0;
+  }
+
   function flush(force = false): Promise<void> {
     if (running) return running;
     if ((queue.size === 0 && acks.size === 0 && present.size === 0 && samples.length === 0) || (!force && Date.now() < retryAt)) return Promise.resolve();
     running = write()
+      .catch(async (error: unknown) => {
+        if (isMissingParent(error) && (await repairMissingParents())) return write();
+        throw error;
+      })
       .then(() => {
         if (failures > 0) logger.info({ failures }, "switch log is writing again");
         failures = 0;

@@ -40,10 +40,11 @@ export function createSwitching(options: SwitchingOptions) {
     return settings;
   }
 
-  function apply(runtime: PlugRuntime, event: SwitchEvent, nowMs: number) {
+  function apply(runtime: PlugRuntime, event: SwitchEvent, nowMs: number): readonly SwitchEffect[] {
     const { state, effects } = stepSwitch(runtime.switching, event, nowMs, settingsFor(runtime.config.leaseS), randomUUID);
     runtime.switching = state;
     for (const effect of effects) carryOut(runtime, effect, state);
+    return effects;
   }
 
   function carryOut(runtime: PlugRuntime, effect: SwitchEffect, state: PlugSwitchState) {
@@ -143,9 +144,11 @@ export function createSwitching(options: SwitchingOptions) {
 
   return {
     evaluate,
-    report(runtime: PlugRuntime, report: { on: boolean; cmd: string | null; plugTimeMs: number }, nowMs: number) {
-      apply(runtime, { type: "report", ...report }, nowMs);
+    /** Takes in a plug's report; false when it was older than one already heard (stale, ignored). */
+    report(runtime: PlugRuntime, report: { on: boolean; cmd: string | null; plugTimeMs: number }, nowMs: number): boolean {
+      const effects = apply(runtime, { type: "report", ...report }, nowMs);
       evaluate(runtime, nowMs);
+      return !effects.some((effect) => effect.type === "stale_report");
     },
     presence(runtime: PlugRuntime, online: boolean, nowMs: number) {
       apply(runtime, { type: "presence", online }, nowMs);
