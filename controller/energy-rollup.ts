@@ -3,6 +3,7 @@
 // on the control path waits for it; while MariaDB is away the changes are kept and
 // retried with back-off.
 import type { Logger } from "pino";
+import { logDetail } from "@/lib/database-errors";
 import type { Database } from "@/db/client";
 import { refreshEnergyDays, type EnergyChange } from "@/db/energy-days";
 
@@ -55,7 +56,7 @@ export function createEnergyRollup({ db, logger, delayMs }: EnergyRollupOptions)
       .catch((error: unknown) => {
         failures++;
         for (const c of batch.values()) merge(pending, c);
-        logger.error({ err: error, plugs: pending.size, failures }, "energy roll-up refresh failed; will try again");
+        logger.error({ ...logDetail(error), plugs: pending.size, failures }, "energy roll-up refresh failed; will try again");
       })
       .finally(() => {
         running = undefined;

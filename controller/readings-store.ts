@@ -7,6 +7,7 @@ import type { Logger } from "pino";
 import type { Database } from "@/db/client";
 import { readingMinutes, readings, sensorStates, sensors } from "@/db/schema";
 import { isMissingParent, stillThere } from "./missing-parents";
+import { logDetail } from "@/lib/database-errors";
 import { insertMany, upsertMany } from "@/db/bulk";
 
 export type ReadingRow = typeof readings.$inferInsert;
@@ -78,7 +79,7 @@ export function createReadingsStore(options: ReadingsStoreOptions) {
       .catch((error: unknown) => {
         failures++;
         retryAt = Date.now() + Math.min(30_000, 250 * 2 ** Math.min(failures, 7));
-        logger.error({ err: error, waiting: queue.length, failures }, "readings write failed; keeping them to retry");
+        logger.error({ ...logDetail(error), waiting: queue.length, failures }, "readings write failed; keeping them to retry");
       })
       .finally(() => {
         running = undefined;

@@ -10,6 +10,7 @@ import type { Logger } from "pino";
 import type { Database } from "@/db/client";
 import { meterSamples, overrides, plugStates, plugs, switchEvents, user } from "@/db/schema";
 import { isMissingParent, stillThere } from "./missing-parents";
+import { logDetail } from "@/lib/database-errors";
 import { insertMany, updateMany, upsertMany } from "@/db/bulk";
 import type { EnergyChange } from "@/db/energy-days";
 
@@ -159,7 +160,7 @@ export function createSwitchLog(options: SwitchLogOptions): SwitchLog {
       .catch((error: unknown) => {
         failures++;
         retryAt = Date.now() + Math.min(30_000, 250 * 2 ** Math.min(failures, 7));
-        logger.error({ err: error, waiting: queue.size + acks.size, failures }, "switch log write failed; keeping the rows to retry");
+        logger.error({ ...logDetail(error), waiting: queue.size + acks.size, failures }, "switch log write failed; keeping the rows to retry");
       })
       .finally(() => {
         running = undefined;

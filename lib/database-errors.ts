@@ -24,3 +24,14 @@ export function isDatabaseUnreachable(error: unknown): boolean {
   return false;
 }
 
+
+/**
+ * For a log line: an unreachable database in one short sentence (its failed statement
+ * and stack say nothing new on every retry); anything else as it is.
+ */
+export function logDetail(error: unknown): { reason: string } | { err: unknown } {
+  if (!isDatabaseUnreachable(error)) return { err: error };
+  let deepest: unknown = error;
+  for (let e: unknown = error, depth = 0; e && typeof e === "object" && depth < 5; e = (e as { cause?: unknown }).cause, depth++) deepest = e;
+  return { reason: deepest instanceof Error ? deepest.message : String(deepest) };
+}

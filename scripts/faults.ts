@@ -125,6 +125,11 @@ async function main(): Promise<number> {
       CLOCHE_PLUG_JOURNAL: journalFile,
       CLOCHE_FAKES_EXCEPT: OWN_PROCESS_PLUG,
       LOG_LEVEL: process.env.LOG_LEVEL ?? "error",
+      // The scenarios send thousands of bad messages to test the controller, not the
+      // broker's per-device limits (tests/integration/device-flood.test.ts tests those):
+      // a device is held back only far above what they send.
+      CLOCHE_DEVICE_BURST: "5000",
+      CLOCHE_DEVICE_PER_SECOND: "2000",
     },
   });
   plug = standalonePlug({ device: OWN_PROCESS_PLUG, env: { ...stack.env, MQTT_URL: stack.mqttUrl }, log: say });
