@@ -4,6 +4,7 @@ import type { Logger } from "pino";
 import type { Database } from "@/db/client";
 import { alerts } from "@/db/schema";
 import type { AlertDetail } from "@/lib/alerts/detail";
+import { logDetail } from "@/lib/database-errors";
 
 export type AlertKind = (typeof alerts.$inferInsert)["kind"];
 export type AlertSubject = { siteId: string; houseId?: string | null; plugId?: string | null; sensorId?: string | null };
@@ -44,7 +45,7 @@ export function createAlerts(options: { db: Database; logger: Logger; now: () =>
           open.delete(key);
           generation++;
         }
-        logger.error({ err: error, key }, "could not store an alert; it will be raised again");
+        logger.error({ ...logDetail(error), key }, "could not store an alert; it will be raised again");
         return null;
       });
     open.set(key, insert);
@@ -74,7 +75,7 @@ export function createAlerts(options: { db: Database; logger: Logger; now: () =>
     };
     Promise.resolve(id)
       .then((rowId) => (rowId === null ? undefined : db.update(alerts).set(set).where(and(eq(alerts.id, rowId), isNull(alerts.clearedAt)))))
-      .catch((error: unknown) => logger.error({ err: error, key }, "could not clear an alert"));
+      .catch((error: unknown) => logger.error({ ...logDetail(error), key }, "could not clear an alert"));
   }
 
   return { load, raise, clear, generation: () => generation, isOpen: (kind: AlertKind, subject: AlertSubject) => open.has(alertKey(kind, subject)) };

@@ -35,6 +35,7 @@ import { createSwitching } from "./switching";
 import { createTimers } from "./timers";
 import { createTrafficLog } from "./traffic-log";
 import type { TrafficLimits } from "@/lib/mqtt/traffic-limit";
+import { logDetail } from "@/lib/database-errors";
 
 export type ControllerOptions = {
   databaseUrl: string;
@@ -228,7 +229,7 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
     timers.at(name, 50, () => {
       reload(siteSlug)
         .then(() => tick())
-        .catch((error: unknown) => logger.error({ err: error, site: siteSlug }, "configuration reload failed; keeping the last one"));
+        .catch((error: unknown) => logger.error({ ...logDetail(error), site: siteSlug }, "configuration reload failed; keeping the last one"));
     });
   }
 

@@ -5,6 +5,7 @@ import { eq } from "drizzle-orm";
 import type { Logger } from "pino";
 import type { Database } from "@/db/client";
 import { controllerHeartbeats } from "@/db/schema";
+import { logDetail } from "@/lib/database-errors";
 
 export function createHeartbeat(options: { db: Database; instanceId: string; sites: string[] | undefined; everyMs: number; now: () => number; logger: Logger }) {
   const { db, instanceId, logger } = options;
@@ -21,7 +22,7 @@ export function createHeartbeat(options: { db: Database; instanceId: string; sit
       if (failing) logger.info("heartbeat written again");
       failing = false;
     } catch (error) {
-      if (!failing) logger.error({ err: error }, "could not write the heartbeat; will keep trying");
+      if (!failing) logger.error({ ...logDetail(error) }, "could not write the heartbeat; will keep trying");
       failing = true;
     }
   }

@@ -132,7 +132,7 @@ export function createReadingsStore(options: ReadingsStoreOptions) {
   const timer = setInterval(() => void flush(), options.flushMs);
   timer.unref();
   const rollTimer = setInterval(() => {
-    rollUp().catch((error: unknown) => logger.error({ err: error }, "reading roll-up failed; will try again"));
+    rollUp().catch((error: unknown) => logger.error({ ...logDetail(error) }, "reading roll-up failed; will try again"));
   }, 60_000);
   rollTimer.unref();
 

@@ -6,6 +6,7 @@ import type { Logger } from "pino";
 import type { Database } from "@/db/client";
 import { deviceTraffic, sites } from "@/db/schema";
 import type { LimitAction, LimitEvent } from "./traffic-judge";
+import { logDetail } from "@/lib/database-errors";
 
 type Tally = { site: string; kind: LimitEvent["kind"]; device: string; counts: Record<LimitAction, number>; lastAction: LimitAction; lastAt: Date };
 
@@ -62,7 +63,7 @@ export function createTrafficLog(options: { db: Database; logger: Logger; everyM
         failing = false;
       })
       .catch((error: unknown) => {
-        if (!failing) logger.error({ err: error, devices: batch.length }, "could not write device traffic; keeping it to try again");
+        if (!failing) logger.error({ ...logDetail(error), devices: batch.length }, "could not write device traffic; keeping it to try again");
         failing = true;
         for (const tally of batch) add(tally);
       })
