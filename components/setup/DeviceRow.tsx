@@ -25,10 +25,10 @@ export function DeviceRow({ device, slug, now, timeZone }: { device: DeviceRowDa
       ? `${APPLIANCE_KIND_LABELS[device.applianceKind as ApplianceKind] ?? "Plug"}${device.applianceWatts ? `, ${formatWatts(device.applianceWatts)}` : ""}`
       : "Sensor";
   return (
-    <li className="flex flex-col gap-1.5">
+    <li className="overflow-hidden rounded-lg border border-frost-200 bg-white has-[a:hover]:border-leaf-400">
       <Link
         href={`/sites/${slug}/devices/${device.kind}/${device.id}`}
-        className="flex min-h-14 flex-col gap-1 rounded-lg border border-frost-200 bg-white px-4 py-3 hover:border-leaf-400 hover:bg-leaf-50 sm:flex-row sm:items-center sm:justify-between"
+        className="flex min-h-14 flex-col gap-1 px-4 py-3 hover:bg-leaf-50 sm:flex-row sm:items-center sm:justify-between"
       >
         <span className="flex flex-col">
           <span className="font-semibold text-frost-950">
