@@ -255,21 +255,19 @@ export async function createController(input: Partial<ControllerOptions> & Pick<
         const runtime = registry.plug(site, device);
         if (!runtime) return "unknown_plug";
         const plugTimeMs = Date.parse(report.at);
-        // A report older than one already heard (late, repeated) changes nothing, stored state included.
-        if (!switching.report(runtime, { on: report.on, cmd: report.cmd ?? null, plugTimeMs }, nowMs)) {
-          switchLog.present(runtime.config.id, { online: true, lastSeenAt: new Date(nowMs) });
-          alertWatch.heard(runtime, nowMs);
-          return;
-        }
+        // A report older than one already heard (late, repeated) says only that the plug is there.
+        const fresh = switching.report(runtime, { on: report.on, cmd: report.cmd ?? null, plugTimeMs }, nowMs);
         switchLog.present(runtime.config.id, {
           online: true,
           lastSeenAt: new Date(nowMs),
-          reportedOn: report.on,
-          reportedAt: new Date(plugTimeMs),
-          watts: report.watts === undefined || report.watts === null ? null : Math.round(report.watts),
-          wattHours: report.wh === undefined || report.wh === null ? null : Math.round(report.wh),
+          ...(fresh && {
+            reportedOn: report.on,
+            reportedAt: new Date(plugTimeMs),
+            watts: report.watts === undefined || report.watts === null ? null : Math.round(report.watts),
+            wattHours: report.wh === undefined || report.wh === null ? null : Math.round(report.wh),
+          }),
         });
-        if (runtime.config.metersEnergy && typeof report.wh === "number" && report.wh >= 0) {
+        if (fresh && runtime.config.metersEnergy && typeof report.wh === "number" && report.wh >= 0) {
           const last = lastSample.get(runtime.config.id);
           if (!last || last.on !== report.on || nowMs - last.atMs >= options.meterSampleMs) {
             lastSample.set(runtime.config.id, { atMs: nowMs, on: report.on });

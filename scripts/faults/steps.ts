@@ -2,7 +2,7 @@
 // figures and failures, and the demo devices' secrets.
 import { readDeviceSecrets } from "../../fakes/layout";
 import { accountSwitches, journalOf } from "./accounting";
-import { readSwitchLog } from "./demo";
+import { loadDemoSite, readSwitchLog } from "./demo";
 import type { FaultContext, FaultResult } from "./scenario";
 import type { FaultProcesses } from "./processes";
 
@@ -84,4 +84,15 @@ export async function settle(
     extra: { "switches made": catchUp.applied, "switches logged": catchUp.logged, "logged only as observed": catchUp.loggedAsObserved, ...o.extra },
     failures,
   };
+}
+
+/**
+ * The start of a scenario on the plug that runs in a process of its own: the stack's
+ * processes, the demo site, that plug and the controller's service, and when it began.
+ */
+export async function ownPlugScenario(context: FaultContext) {
+  const processes = processesOf(context);
+  const fromMs = Date.now();
+  const site = await loadDemoSite(context.databaseUrl);
+  return { processes, fromMs, failures: [] as string[], site, fan: site.plug(processes.plug.device), controller: processes.service("controller") };
 }

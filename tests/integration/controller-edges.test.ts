@@ -1,14 +1,12 @@
 // A window that a reload brings in is switched at its edge by the edge timer, not
 // at the next backstop tick (here an hour away).
-import { randomUUID } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { asc, eq } from "drizzle-orm";
-import { DateTime } from "luxon";
 import { getDb } from "@/db/client";
-import { scheduleWindows, schedules, switchEvents } from "@/db/schema";
+import { switchEvents } from "@/db/schema";
 import { createController, type Controller } from "@/controller/controller";
 import { startPlugDevice, type PlugDevice } from "@/fakes/plug-device";
-import { createControlSite, eventually, testControllerOptions, type ControlSite } from "../support/control-site";
+import { addWindowOpeningAt, createControlSite, eventually, testControllerOptions, type ControlSite } from "../support/control-site";
 
 let site: ControlSite;
 let controller: Controller;
@@ -31,15 +29,7 @@ describe("schedule edges", () => {
   it("switches at the opening of a window added by a reload", async () => {
     // Whole seconds: a window starts on a second. Europe/London local time, as the site keeps.
     const opensMs = Math.ceil((Date.now() + 1500) / 1000) * 1000;
-    const scheduleId = randomUUID();
-    await getDb().insert(schedules).values({ id: scheduleId, plugId: site.lightId, name: "Soon" });
-    await getDb().insert(scheduleWindows).values({
-      scheduleId,
-      recurrence: "FREQ=DAILY",
-      startsAt: DateTime.fromMillis(opensMs, { zone: "Europe/London" }).toFormat("HH:mm:ss"),
-      durationMin: 1,
-      mode: "on",
-    });
+    await addWindowOpeningAt(getDb(), site.lightId, opensMs);
     await controller.reload();
     expect(light.on).toBe(false);
     await eventually(() => light.on, 4000, "light on at the window's opening");

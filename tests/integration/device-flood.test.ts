@@ -1,20 +1,18 @@
 // One sensor sending as fast as TCP lets it must not starve the others: the broker
 // holds it back by not reading its socket, cuts it off when it keeps on, and a heater
 // and a light in another site still switch on time.
-import { randomUUID } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { and, eq } from "drizzle-orm";
-import { DateTime } from "luxon";
 import type { MqttClient } from "mqtt";
 import { getDb } from "@/db/client";
 import { getDevicesBySite } from "@/db/queries/devices";
-import { deviceTraffic, scheduleWindows, schedules } from "@/db/schema";
+import { deviceTraffic } from "@/db/schema";
 import { createController, type Controller } from "@/controller/controller";
 import { startPlugDevice, type PlugDevice } from "@/fakes/plug-device";
 import { CONTROLLER_USERNAME, deviceUsername } from "@/lib/mqtt/credentials";
 import { MAX_PAYLOAD_BYTES, plugTopic, sensorTopic } from "@/lib/mqtt/topics";
 import { DEFAULT_DEVICE_LIMITS } from "@/lib/mqtt/traffic-limit";
-import { connectAs, createControlSite, eventually, testControllerOptions, type ControlSite } from "../support/control-site";
+import { addWindowOpeningAt, connectAs, createControlSite, eventually, testControllerOptions, type ControlSite } from "../support/control-site";
 import { flood, publishPacket, rawConnect, remainingLength } from "../support/raw-mqtt";
 
 // The defaults, but cut off after 2 s held back (not 10) and a 3 s cool-off, to keep the test short.
@@ -88,15 +86,7 @@ describe("a flooding sensor", () => {
 
     // The light's window opens 2.5 s from now, on a whole second.
     const opensMs = Math.ceil((Date.now() + 2500) / 1000) * 1000;
-    const scheduleId = randomUUID();
-    await getDb().insert(schedules).values({ id: scheduleId, plugId: calm.lightId, name: "Soon" });
-    await getDb().insert(scheduleWindows).values({
-      scheduleId,
-      recurrence: "FREQ=DAILY",
-      startsAt: DateTime.fromMillis(opensMs, { zone: "Europe/London" }).toFormat("HH:mm:ss"),
-      durationMin: 1,
-      mode: "on",
-    });
+    await addWindowOpeningAt(getDb(), calm.lightId, opensMs);
     await controller.reload(calm.slug);
 
     // The flooded site's sensor: readings as fast as TCP takes them, QoS 0 and 1 in turn.

@@ -3,6 +3,7 @@
 import { randomBytes, randomUUID } from "node:crypto";
 import pino from "pino";
 import type { ControllerOptions } from "@/controller/controller";
+import { DateTime } from "luxon";
 import mqtt, { type MqttClient } from "mqtt";
 import type { Database } from "@/db/client";
 import { issueDeviceCredential } from "@/db/device-credentials";
@@ -161,4 +162,21 @@ export function startTestHeater(site: ControlSite, url: string) {
     reportEveryMs: 0,
     reconnectPeriod: 200,
   });
+}
+
+/**
+ * Gives a plug a one-minute "on" window opening at `opensMs` (a whole second), in the
+ * control site's zone (Europe/London). The caller reloads the controller.
+ */
+export async function addWindowOpeningAt(db: Database, plugId: string, opensMs: number) {
+  const scheduleId = randomUUID();
+  await db.insert(schedules).values({ id: scheduleId, plugId, name: "Soon" });
+  await db.insert(scheduleWindows).values({
+    scheduleId,
+    recurrence: "FREQ=DAILY",
+    startsAt: DateTime.fromMillis(opensMs, { zone: "Europe/London" }).toFormat("HH:mm:ss"),
+    durationMin: 1,
+    mode: "on",
+  });
+  return scheduleId;
 }

@@ -5,10 +5,10 @@
 import { CONTROLLER_USERNAME } from "../../../lib/mqtt/credentials";
 import { plugTopic } from "../../../lib/mqtt/topics";
 import { journalOf, timeToReach } from "../accounting";
-import { loadDemoSite, mqttConnect, SITE, setOnWindow, wakeSite, withDatabase } from "../demo";
+import { mqttConnect, SITE, setOnWindow, wakeSite, withDatabase } from "../demo";
 import { plugs } from "../../../db/schema";
 import type { FaultScenario } from "../scenario";
-import { wholeSecond, processesOf, seconds, settle, sleep } from "../steps";
+import { ownPlugScenario, seconds, settle, sleep, wholeSecond } from "../steps";
 
 export const brokerRestart: FaultScenario = {
   name: "broker-restarted",
@@ -16,12 +16,7 @@ export const brokerRestart: FaultScenario = {
   about: "The controller and its embedded broker stopped (SIGTERM) and restarted with the plugs connected; a window opens meanwhile.",
   async run(context) {
     const { log, databaseUrl, mqttUrl } = context;
-    const processes = processesOf(context);
-    const fromMs = Date.now();
-    const failures: string[] = [];
-    const site = await loadDemoSite(databaseUrl);
-    const fan = site.plug(processes.plug.device);
-    const controller = processes.service("controller");
+    const { processes, fromMs, failures, site, fan, controller } = await ownPlugScenario(context);
     const devices = await withDatabase(databaseUrl, async (db) => (await db.select({ deviceId: plugs.deviceId }).from(plugs)).map((p) => p.deviceId));
 
     const stopAtMs = Date.now() + 12_000;

@@ -3,9 +3,9 @@
 // restarted controller carries on from the stored state — the switch logged once, the
 // plug in the wanted state.
 import { journalOf, timeToReach } from "../accounting";
-import { loadDemoSite, setOnWindow, wakeSite } from "../demo";
+import { setOnWindow, wakeSite } from "../demo";
 import type { FaultScenario } from "../scenario";
-import { wholeSecond, processesOf, seconds, settle, sleep, waitFor } from "../steps";
+import { ownPlugScenario, seconds, settle, sleep, waitFor, wholeSecond } from "../steps";
 
 export const controllerKill: FaultScenario = {
   name: "controller-killed-at-an-edge",
@@ -13,12 +13,7 @@ export const controllerKill: FaultScenario = {
   about: "SIGKILL to the controller the moment a window's command reaches its plug; the supervisor restarts it.",
   async run(context) {
     const { log, databaseUrl, mqttUrl } = context;
-    const processes = processesOf(context);
-    const fromMs = Date.now();
-    const failures: string[] = [];
-    const site = await loadDemoSite(databaseUrl);
-    const fan = site.plug(processes.plug.device);
-    const controller = processes.service("controller");
+    const { processes, fromMs, failures, site, fan, controller } = await ownPlugScenario(context);
 
     const edgeMs = wholeSecond(Date.now() + 12_000);
     log(`${fan.deviceId} gets a window opening at ${new Date(edgeMs).toISOString()}`);

@@ -3,9 +3,9 @@
 // plug-offline alert, and when the plug comes back — in its own fail-safe state, its
 // lease gone with the power — the controller finds it so and switches it back, once.
 import { journalOf, timeToReach } from "../accounting";
-import { alertsRaised, loadDemoSite, setOnWindow, setPlugOfflineAfter, wakeSite } from "../demo";
+import { alertsRaised, setOnWindow, setPlugOfflineAfter, wakeSite } from "../demo";
 import type { FaultScenario } from "../scenario";
-import { processesOf, seconds, settle, sleep, waitFor } from "../steps";
+import { ownPlugScenario, seconds, settle, sleep, waitFor } from "../steps";
 
 /** The shortest "plug offline after" a house's rules take (lib/alerts/rules.ts). */
 const OFFLINE_AFTER_MIN = 1;
@@ -16,12 +16,8 @@ export const plugPower: FaultScenario = {
   about: "A plug's process killed (SIGKILL) while its window wants it on: offline alert, then resync when it returns.",
   async run(context) {
     const { log, databaseUrl, mqttUrl } = context;
-    const processes = processesOf(context);
-    const fromMs = Date.now();
-    const failures: string[] = [];
+    const { processes, fromMs, failures, site, fan } = await ownPlugScenario(context);
     const extra: Record<string, number | string> = {};
-    const site = await loadDemoSite(databaseUrl);
-    const fan = site.plug(processes.plug.device);
 
     log(`${fan.deviceId} gets a window open now; its house says "plug offline" after ${OFFLINE_AFTER_MIN} min`);
     await setPlugOfflineAfter(databaseUrl, fan.houseId, OFFLINE_AFTER_MIN);
